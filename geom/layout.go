@@ -1,0 +1,85 @@
+package geom
+
+import "gonum.org/v1/gonum/spatial/r2"
+
+// Outside marks the side of a piece that is not part of the domain (inside a
+// body, or outside every region of a closed scene).
+const Outside = -1
+
+// Piece is a straight stretch of the domain's boundary or of an interface
+// between two regions, in metres.
+//
+// A boundary piece has exactly one side in the domain and is oriented so
+// that the domain lies on its Left: walking from A to B the domain is on the
+// left, and the outward normal of the domain is the right normal
+// (B-A rotated clockwise). Right is Outside.
+//
+// An interface piece has a region on both sides (Left != Right, both >= 0);
+// its Cond is unused.
+type Piece struct {
+	A, B        r2.Vec
+	Left, Right int // indices into Layout.Regions, or Outside
+	// Owner is the index into Layout.Owners of the body or edge whose
+	// condition the piece carries, or -1 (a region's insulated outer wall,
+	// or an interface).
+	Owner int
+	Cond  Condition // the condition in force on a boundary piece
+}
+
+// Interface reports whether both sides of the piece are domain.
+func (p Piece) Interface() bool { return p.Left != Outside && p.Right != Outside }
+
+// Part tells a body from an edge.
+type Part uint8
+
+const (
+	PartBody Part = iota + 1
+	PartEdge
+	PartRegion
+)
+
+// String returns the scene-file name of the part.
+func (p Part) String() string {
+	switch p {
+	case PartBody:
+		return "body"
+	case PartEdge:
+		return "edge"
+	case PartRegion:
+		return "region"
+	}
+	return "invalid"
+}
+
+// Owner is a named body or edge: the unit results are reported by.
+type Owner struct {
+	Name    string
+	Part    Part
+	Feature int // index of the feature in the file
+	Index   int // index into Scene.Bodies or Scene.Edges
+	Cond    Condition
+}
+
+// Domain is one region of the domain with its material.
+type Domain struct {
+	Name       string
+	Feature    int  // feature index, -1 for the background
+	Background bool // the unbounded background of an open scene
+	Material   Material
+}
+
+// Layout is the planar arrangement of a scene: every boundary and interface
+// piece with what lies on each side. It is what the mesh and the solver need
+// and nothing more.
+type Layout struct {
+	Pieces []Piece
+	// Owners lists the bodies (in scene order) then the edges (in scene order).
+	Owners []Owner
+	// Regions lists the scene's regions in order, then the background last
+	// when the scene is open.
+	Regions []Domain
+	Open    bool
+	Ground  *Ground
+	// Diagonal is the length of the scene's bounding-box diagonal in metres.
+	Diagonal float64
+}
