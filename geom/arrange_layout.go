@@ -1,0 +1,348 @@
+package geom
+
+import (
+	"fmt"
+	"slices"
+
+	"gonum.org/v1/gonum/spatial/r2"
+)
+
+// This file turns the classified sub-segments into the Layout: the
+// cross-feature checks, one piece per sub-segment that bounds the domain or
+// separates two regions, and the order of the pieces.
+
+// rawPiece is a piece with its vertex ids, for chaining.
+type rawPiece struct {
+	Piece
+	va, vb int32
+}
+
+func (a *arrangement) mid(sg *subSeg) r2.Vec {
+	A, B := a.pos[sg.lo], a.pos[sg.hi]
+	return r2.Vec{X: 0.5 * (A.X + B.X), Y: 0.5 * (A.Y + B.Y)}
+}
+
+// domain reports whether a side is part of the domain.
+func (a *arrangement) domain(sd side) bool {
+	return len(sd.bodies) == 0 && (a.sc.Problem.Open || len(sd.regions) > 0)
+}
+
+// regionOf is the Layout.Regions index of a domain side.
+func (a *arrangement) regionOf(sd side) int {
+	if len(sd.regions) > 0 {
+		return sd.regions[0]
+	}
+	return len(a.sc.Regions) // the background
+}
+
+func (a *arrangement) layout() (*Layout, error) {
+	s := a.sc
+	if err := a.checkRegions(); err != nil {
+		return nil, err
+	}
+	if err := a.checkBodies(); err != nil {
+		return nil, err
+	}
+	nb := len(s.Bodies)
+	var pieces []rawPiece
+	edgeOn := make([]bool, len(s.Edges))  // some part of the edge bounds the domain
+	bodyOn := make([]bool, len(s.Bodies)) // the body carries some piece
+	bodyIn := make([]bool, len(s.Bodies)) // some side of the body\'s rings is in a region
+	var edges []int                       // scratch
+	anyDomain := false
+	for i := range a.subs {
+		sg := &a.subs[i]
+		edges = edges[:0]
+		inRegion := len(sg.sides[0].regions) > 0 || len(sg.sides[1].regions) > 0
+		for _, c := range sg.contribs {
+			switch src := a.sources[c.src]; src.kind {
+			case srcEdge:
+				edges = appendSet(edges, src.feat)
+			case srcBody:
+				bodyIn[src.feat] = bodyIn[src.feat] || inRegion
+			}
+		}
+		if len(edges) > 1 {
+			return nil, s.featErr(srcEdge, edges[0], fmt.Sprintf("overlaps %s near %s; a stretch of boundary takes one condition: shorten one of the two edges", s.featRef(srcEdge, edges[1]), a.where(a.mid(sg))))
+		}
+		dl, dr := a.domain(sg.sides[0]), a.domain(sg.sides[1])
+		anyDomain = anyDomain || dl || dr
+		switch {
+		case !dl && !dr:
+			continue
+		case dl && dr:
+			rl, rr := a.regionOf(sg.sides[0]), a.regionOf(sg.sides[1])
+			if len(edges) > 0 {
+				return nil, a.edgeInside(edges[0], sg, rl, rr)
+			}
+			if rl == rr {
+				continue
+			}
+			A, B := a.pos[sg.lo], a.pos[sg.hi]
+			va, vb := sg.lo, sg.hi
+			if rl > rr { // interfaces run with the lower region index on the left
+				A, B, va, vb, rl, rr = B, A, vb, va, rr, rl
+			}
+			pieces = append(pieces, rawPiece{Piece{A: A, B: B, Left: rl, Right: rr, Owner: -1}, va, vb})
+			continue
+		}
+		// A boundary piece: domain on the left.
+		A, B, va, vb := a.pos[sg.lo], a.pos[sg.hi], sg.lo, sg.hi
+		dom, out := sg.sides[0], sg.sides[1]
+		if dr {
+			A, B, va, vb = B, A, vb, va
+			dom, out = out, dom
+		}
+		p := Piece{A: A, B: B, Left: a.regionOf(dom), Right: Outside, Owner: -1, Cond: Insulated}
+		switch {
+		case len(edges) > 0:
+			p.Owner = nb + edges[0]
+			p.Cond = s.Edges[edges[0]].Cond
+			edgeOn[edges[0]] = true
+		case len(out.bodies) > 0:
+			b := out.bodies[0]
+			if len(out.bodies) > 1 {
+				for _, c := range sg.contribs {
+					src := a.sources[c.src]
+					if src.kind == srcBody && slices.Contains(out.bodies, src.feat) {
+						b = src.feat
+						break
+					}
+				}
+			}
+			p.Owner = b
+			p.Cond = s.Bodies[b].Cond
+			bodyOn[b] = true
+		}
+		pieces = append(pieces, rawPiece{p, va, vb})
+	}
+	if !anyDomain {
+		msg := "the domain is empty: the bodies cover every region; a body is not part of the domain, so draw the material around it as a region"
+		if s.Problem.Open {
+			msg = "the domain is empty: check the scene's geometry"
+		}
+		return nil, &Error{Feature: -1, Msg: msg}
+	}
+	for i, on := range edgeOn {
+		if !on {
+			return nil, s.featErr(srcEdge, i, "lies on no boundary of the domain (it is inside a body or outside every region); draw it along a region's outer boundary or a body's boundary where it meets the domain")
+		}
+	}
+	for i, on := range bodyOn {
+		switch b := s.Bodies[i]; {
+		case on || b.Cond == Insulated:
+		case !s.Problem.Open && !bodyIn[i]:
+			return nil, s.featErr(srcBody, i, fmt.Sprintf("has the condition %q but lies outside every region, so it touches no part of the domain; move it into a region or delete it", b.Cond.Kind))
+		case b.Cond.Kind == Floating:
+			return nil, s.featErr(srcBody, i, "is floating but other bodies cover it entirely, so it has no boundary with the domain; delete it or give it a fixed potential")
+		}
+	}
+	lay := &Layout{
+		Pieces:   orderPieces(pieces),
+		Open:     s.Problem.Open,
+		Ground:   s.Problem.Ground,
+		Diagonal: a.diag,
+	}
+	for i, b := range s.Bodies {
+		lay.Owners = append(lay.Owners, Owner{Name: b.Name, Part: PartBody, Feature: b.Feature, Index: i, Cond: b.Cond})
+	}
+	for i, e := range s.Edges {
+		lay.Owners = append(lay.Owners, Owner{Name: e.Name, Part: PartEdge, Feature: e.Feature, Index: i, Cond: e.Cond})
+	}
+	for _, r := range s.Regions {
+		lay.Regions = append(lay.Regions, Domain{Name: r.Name, Feature: r.Feature, Material: r.Material})
+	}
+	if s.Problem.Open {
+		lay.Regions = append(lay.Regions, Domain{Name: "background", Feature: -1, Background: true, Material: s.Problem.Background})
+	}
+	return lay, nil
+}
+
+// appendSet appends v to an unsorted small set unless it is there.
+func appendSet(set []int, v int) []int {
+	if slices.Contains(set, v) {
+		return set
+	}
+	return append(set, v)
+}
+
+// edgeInside is the error of an edge lying inside the domain.
+func (a *arrangement) edgeInside(e int, sg *subSeg, rl, rr int) error {
+	s := a.sc
+	name := func(r int) string {
+		if r == len(s.Regions) {
+			return "the background"
+		}
+		return s.featRef(srcRegion, r)
+	}
+	var what string
+	if rl == rr {
+		what = "runs through the inside of " + name(rl)
+	} else {
+		what = "runs along the interface between " + name(rl) + " and " + name(rr)
+	}
+	return s.featErr(srcEdge, e, fmt.Sprintf("%s near %s, where both sides are domain; an edge must lie on the domain's boundary: move it onto a region's outer boundary or a body's boundary, or split the region there", what, a.where(a.mid(sg))))
+}
+
+// checkRegions rejects overlapping regions: a side inside two regions.
+func (a *arrangement) checkRegions() error {
+	s := a.sc
+	for i := range a.subs {
+		sg := &a.subs[i]
+		for _, sd := range sg.sides {
+			if len(sd.regions) > 1 {
+				return s.featErr(srcRegion, sd.regions[0], fmt.Sprintf("overlaps %s near %s; regions may touch but not overlap: cut one of them along the other's boundary", s.featRef(srcRegion, sd.regions[1]), a.where(a.mid(sg))))
+			}
+		}
+	}
+	return nil
+}
+
+// checkBodies rejects conductors in contact that cannot be: bodies at
+// different fixed potentials, and a floating body touching another
+// conductor, where they share a sub-segment or a vertex or overlap.
+func (a *arrangement) checkBodies() error {
+	s := a.sc
+	var set []int
+	check := func(set []int, p r2.Vec) error {
+		for x := 0; x < len(set); x++ {
+			for y := x + 1; y < len(set); y++ {
+				if msg := a.contact(set[x], set[y], p); msg != "" {
+					return s.featErr(srcBody, set[x], msg)
+				}
+			}
+		}
+		return nil
+	}
+	atVertex := make(map[int32][]int)
+	for i := range a.subs {
+		sg := &a.subs[i]
+		set = set[:0]
+		for _, c := range sg.contribs {
+			src := a.sources[c.src]
+			if src.kind == srcBody {
+				set = appendSet(set, src.feat)
+				atVertex[sg.lo] = appendSet(atVertex[sg.lo], src.feat)
+				atVertex[sg.hi] = appendSet(atVertex[sg.hi], src.feat)
+			}
+		}
+		for _, sd := range sg.sides {
+			for _, b := range sd.bodies {
+				set = appendSet(set, b)
+			}
+		}
+		if len(set) > 1 {
+			slices.Sort(set)
+			if err := check(set, a.mid(sg)); err != nil {
+				return err
+			}
+		}
+	}
+	vs := make([]int32, 0, len(atVertex))
+	for v, set := range atVertex {
+		if len(set) > 1 {
+			vs = append(vs, v)
+		}
+	}
+	slices.Sort(vs)
+	for _, v := range vs {
+		set := atVertex[v]
+		slices.Sort(set)
+		if err := check(set, a.pos[v]); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// contact is the message for bodies i and j in contact at p, or "" when
+// their contact is harmless.
+func (a *arrangement) contact(i, j int, p r2.Vec) string {
+	s := a.sc
+	ci, cj := s.Bodies[i].Cond, s.Bodies[j].Cond
+	other := s.featRef(srcBody, j)
+	u := s.potUnit()
+	switch {
+	case ci.Kind == Potential && cj.Kind == Potential && ci.Value != cj.Value:
+		return fmt.Sprintf("touches or overlaps %s near %s, but they are held at different potentials (%s%s and %s%s): a short circuit; separate them or give them the same potential", other, a.where(p), fmtNum(ci.Value), u, fmtNum(cj.Value), u)
+	case ci.Kind == Floating && cj.Kind == Floating:
+		return fmt.Sprintf("is floating and touches or overlaps %s, also floating, near %s: touching conductors are one conductor; merge them into one body or separate them", other, a.where(p))
+	case ci.Kind == Floating && cj.Kind == Potential:
+		return fmt.Sprintf("is floating and touches or overlaps %s, held at %s%s, near %s; a conductor touching a conductor at a fixed potential is at that potential: give this body the potential %s%s instead of floating, or separate them", other, fmtNum(cj.Value), u, a.where(p), fmtNum(cj.Value), u)
+	case ci.Kind == Potential && cj.Kind == Floating:
+		return fmt.Sprintf("is held at %s%s and touches or overlaps %s, which is floating, near %s; a conductor touching a conductor at a fixed potential is at that potential: give %s the potential %s%s instead of floating, or separate them", fmtNum(ci.Value), u, other, a.where(p), other, fmtNum(ci.Value), u)
+	}
+	return ""
+}
+
+// orderPieces groups the pieces (owners in order, then insulated walls, then
+// interfaces by pair of regions) and orders each group along its chains:
+// each chain starts at a piece no other piece of the group leads into, or,
+// for closed loops, at the first remaining piece; at a branch the first
+// piece in arrangement order is taken.
+func orderPieces(ps []rawPiece) []Piece {
+	type key struct{ class, owner, left, right int }
+	keyOf := func(p Piece) key {
+		switch {
+		case p.Owner >= 0:
+			return key{0, p.Owner, 0, 0}
+		case !p.Interface():
+			return key{1, 0, 0, 0}
+		}
+		return key{2, 0, p.Left, p.Right}
+	}
+	idx := make([]int, len(ps))
+	for i := range idx {
+		idx[i] = i
+	}
+	slices.SortStableFunc(idx, func(i, j int) int {
+		ki, kj := keyOf(ps[i].Piece), keyOf(ps[j].Piece)
+		for _, d := range [4]int{ki.class - kj.class, ki.owner - kj.owner, ki.left - kj.left, ki.right - kj.right} {
+			if d != 0 {
+				return d
+			}
+		}
+		return 0
+	})
+	out := make([]Piece, 0, len(ps))
+	used := make([]bool, len(ps))
+	for g := 0; g < len(idx); {
+		h := g
+		for h < len(idx) && keyOf(ps[idx[h]].Piece) == keyOf(ps[idx[g]].Piece) {
+			h++
+		}
+		group := idx[g:h]
+		from := make(map[int32][]int, len(group)) // start vertex -> pieces, in order
+		into := make(map[int32]int, len(group))
+		for _, i := range group {
+			from[ps[i].va] = append(from[ps[i].va], i)
+			into[ps[i].vb]++
+		}
+		walk := func(i int) {
+			for i >= 0 {
+				used[i] = true
+				out = append(out, ps[i].Piece)
+				next := -1
+				for _, j := range from[ps[i].vb] {
+					if !used[j] {
+						next = j
+						break
+					}
+				}
+				i = next
+			}
+		}
+		for _, i := range group {
+			if !used[i] && into[ps[i].va] == 0 {
+				walk(i)
+			}
+		}
+		for _, i := range group {
+			if !used[i] {
+				walk(i)
+			}
+		}
+		g = h
+	}
+	return out
+}
