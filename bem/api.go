@@ -50,6 +50,8 @@ type Solution struct {
 	Cond float64
 	// Warnings lists numerical concerns, one sentence each.
 	Warnings []string
+
+	pr *problem
 }
 
 // OwnerResult is the integrated result on one body or edge.

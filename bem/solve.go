@@ -1,26 +1,161 @@
 package bem
 
 import (
-	"errors"
+	"fmt"
+	"math"
 
+	"github.com/rimfield/rimfield/geom"
 	"github.com/rimfield/rimfield/mesh"
-	"gonum.org/v1/gonum/spatial/r2"
+	"gonum.org/v1/gonum/mat"
 )
 
 // System is an assembled and factorised boundary element system; it solves
 // any number of right-hand sides (Data) for the same mesh and condition kinds.
 type System struct {
-	mesh *mesh.Mesh
+	pr       *problem
+	as       *assembled
+	lu       mat.LU
+	cond     float64
+	warnings []string
+}
+
+// SingularError reports a system that cannot be solved: typically a part of
+// a closed domain with no fixed potential to refer to.
+type SingularError struct {
+	Cond float64
+}
+
+func (e *SingularError) Error() string {
+	return fmt.Sprintf("bem: the system is singular (condition estimate %.3g): some part of the domain has no fixed potential to refer to, or boundaries overlap; fix a potential on a boundary of every separate part", e.Cond)
 }
 
 // Assemble builds and factorises the system for the mesh.
 func Assemble(m *mesh.Mesh, s *Settings) (*System, error) {
-	return nil, errors.New("bem: assembly in progress")
+	if s == nil {
+		s = &Settings{}
+	}
+	pr, err := newProblem(m)
+	if err != nil {
+		return nil, err
+	}
+	sys := &System{pr: pr}
+	sys.as = pr.assemble(s.Workers, s.Progress)
+	sys.lu.Factorize(sys.as.a)
+	sys.cond = sys.lu.Cond()
+	if math.IsInf(sys.cond, 0) || math.IsNaN(sys.cond) || sys.cond > 1e15 {
+		return nil, &SingularError{Cond: sys.cond}
+	}
+	limit := s.CondLimit
+	if limit == 0 {
+		limit = 1e10
+	}
+	if sys.cond > limit {
+		sys.warnings = append(sys.warnings, fmt.Sprintf(
+			"the system is poorly conditioned (estimate %.3g): results may carry fewer digits; look for nearly touching boundaries or extreme panel sizes", sys.cond))
+	}
+	return sys, nil
+}
+
+// Unknowns returns the number of unknowns of the system.
+func (sys *System) Unknowns() int { return sys.pr.nUnk }
+
+// Cond returns the estimated condition number of the scaled system.
+func (sys *System) Cond() float64 { return sys.cond }
+
+// values returns the owners' condition values and the right-hand side.
+func (sys *System) rhs(d *Data) (*mat.VecDense, []geom.Condition, error) {
+	lay := sys.pr.m.Layout
+	conds := make([]geom.Condition, len(lay.Owners))
+	for i, o := range lay.Owners {
+		conds[i] = o.Cond
+	}
+	if d != nil && d.Owners != nil {
+		if len(d.Owners) != len(conds) {
+			return nil, nil, fmt.Errorf("bem: data has %d owner conditions, the mesh %d", len(d.Owners), len(conds))
+		}
+		for i, c := range d.Owners {
+			if c.Kind != conds[i].Kind {
+				return nil, nil, fmt.Errorf("bem: data changes the kind of %q's condition from %v to %v", lay.Owners[i].Name, conds[i].Kind, c.Kind)
+			}
+			conds[i] = c
+		}
+	}
+	n := sys.pr.nUnk
+	v := mat.NewVecDense(max(len(conds), 1), nil)
+	for i, c := range conds {
+		if c.Kind == geom.Potential || c.Kind == geom.Flux {
+			v.SetVec(i, c.Value)
+		}
+	}
+	b := mat.NewVecDense(n, nil)
+	b.MulVec(sys.as.b, v)
+	b.ScaleVec(-1, b)
+	for i, rw := range sys.pr.rows {
+		if rw.kind == rowFloating {
+			b.SetVec(i, b.AtVec(i)+rw.scale*conds[rw.owner].NetInflow)
+		}
+	}
+	return b, conds, nil
 }
 
 // Solve solves for the data (nil: the mesh's own conditions).
 func (sys *System) Solve(d *Data) (*Solution, error) {
-	return nil, errors.New("bem: solve in progress")
+	b, conds, err := sys.rhs(d)
+	if err != nil {
+		return nil, err
+	}
+	var x mat.VecDense
+	if err := sys.lu.SolveVecTo(&x, false, b); err != nil {
+		return nil, fmt.Errorf("bem: solve: %v", err)
+	}
+	return sys.solution(x.RawVector().Data, conds), nil
+}
+
+// solution unpacks the unknown vector.
+func (sys *System) solution(x []float64, conds []geom.Condition) *Solution {
+	pr := sys.pr
+	m := pr.m
+	np := len(m.Panels)
+	s := &Solution{
+		Mesh:     m,
+		U:        make([]float64, np),
+		F:        make([]float64, np),
+		Floating: make([]float64, len(conds)),
+		Const:    make([]float64, len(pr.regions)),
+		Cond:     sys.cond,
+		Warnings: append([]string(nil), sys.warnings...),
+		pr:       pr,
+	}
+	known := func(sl slot) float64 {
+		if sl.owner < 0 {
+			return 0
+		}
+		return conds[sl.owner].Value
+	}
+	for j := range m.Panels {
+		if c := pr.uSlot[j].col; c >= 0 {
+			s.U[j] = x[c]
+		} else {
+			s.U[j] = known(pr.uSlot[j])
+		}
+		if c := pr.fSlot[j].col; c >= 0 {
+			s.F[j] = x[c] * pr.fScale[j]
+		} else {
+			s.F[j] = known(pr.fSlot[j])
+		}
+	}
+	for o := range s.Floating {
+		s.Floating[o] = math.NaN()
+		if c := pr.floatCol[o]; c >= 0 {
+			s.Floating[o] = x[c]
+		}
+	}
+	for i, r := range pr.regions {
+		if r.constCol >= 0 {
+			s.Const[i] = x[r.constCol]
+		}
+	}
+	return s
 }
 
 // Solve assembles and solves the mesh with its own conditions.
@@ -32,8 +167,15 @@ func Solve(m *mesh.Mesh, s *Settings) (*Solution, error) {
 	return sys.Solve(nil)
 }
 
-// Eval returns the potential and its gradient at p.
-func (s *Solution) Eval(p r2.Vec) Point { return Point{} }
-
-// Owners returns the integrated results per body and edge, in Layout.Owners order.
-func (s *Solution) Owners() []OwnerResult { return nil }
+// SolveMany solves several right-hand sides with one factorisation.
+func (sys *System) SolveMany(ds []Data) ([]*Solution, error) {
+	out := make([]*Solution, len(ds))
+	for i := range ds {
+		s, err := sys.Solve(&ds[i])
+		if err != nil {
+			return nil, err
+		}
+		out[i] = s
+	}
+	return out, nil
+}

@@ -1,0 +1,369 @@
+package bem
+
+import (
+	"fmt"
+	"math"
+	"runtime"
+	"sync"
+
+	"github.com/rimfield/rimfield/geom"
+	"github.com/rimfield/rimfield/mesh"
+	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/spatial/r2"
+)
+
+// region is one subdomain as the integral equation sees it: its material
+// transform and the panels that bound it, each oriented with the region on
+// its left.
+type region struct {
+	kbar  float64 // sqrt(kx ky)
+	ax    float64 // transform T' = diag(ax, 1/ax), ax = (ky/kx)^(1/4); det T' = 1
+	image bool    // grounded plane y = groundY: image kernel
+	gy    float64
+	open  bool // unbounded (the background of an open scene)
+	// constCol is the column of the region's constant, or -1 when it is fixed at 0.
+	constCol int
+	// sides lists the bounding panels.
+	sides []side
+}
+
+// side is a panel seen from one region.
+type side struct {
+	panel int
+	sign  float64    // +1 if the region is the panel's Left, -1 if its Right
+	frame panelFrame // in the region's transformed frame, oriented with the region on the left
+	image panelFrame // the mirror image in the grounded plane (transformed frame), if any
+	scale float64    // original length over transformed length, over kbar
+}
+
+// transform maps a point into the region's isotropic frame.
+func (r *region) transform(p r2.Vec) r2.Vec { return r2.Vec{X: r.ax * p.X, Y: p.Y / r.ax} }
+
+// coefficients returns, for the target x (original coordinates), the
+// coefficient of the panel's potential (the double layer) and of its inflow
+// density into this region (the single layer, scaled by the material).
+func (r *region) coefficients(s *side, x r2.Vec, self bool) (cu, cf float64) {
+	X := r.transform(x)
+	sl, dl := s.frame.integrals(X, self)
+	if r.image {
+		isl, idl := s.image.integrals(X, false)
+		sl -= isl
+		dl -= idl
+	}
+	return dl, sl * s.scale
+}
+
+// gradCoefficients returns the gradients (original coordinates) of the two
+// coefficients of coefficients.
+func (r *region) gradCoefficients(s *side, x r2.Vec) (gu, gf r2.Vec) {
+	X := r.transform(x)
+	gsl, gdl := s.frame.gradients(X)
+	if r.image {
+		igsl, igdl := s.image.gradients(X)
+		gsl = r2.Sub(gsl, igsl)
+		gdl = r2.Sub(gdl, igdl)
+	}
+	// grad_x = T' grad_X, T' diagonal.
+	back := func(v r2.Vec) r2.Vec { return r2.Vec{X: r.ax * v.X, Y: v.Y / r.ax} }
+	return back(gdl), r2.Scale(s.scale, back(gsl))
+}
+
+// slot tells where a panel's potential or inflow lives: an unknown column,
+// or a known value given per owner.
+type slot struct {
+	col   int // unknown column, or -1 when known
+	owner int // owner whose condition value this is when known (-1: zero)
+}
+
+// problem is the discrete problem: regions, slots, extra unknowns and rows.
+type problem struct {
+	m       *mesh.Mesh
+	regions []region
+	uSlot   []slot
+	fSlot   []slot
+	fScale  []float64 // column scale: F = fScale * x
+	nUnk    int
+	// rows: one per (region, side), then the extra equations.
+	rows     []row
+	floatCol []int // per owner: column of its floating potential, or -1
+	length   float64
+	nOwners  int
+}
+
+type rowKind uint8
+
+const (
+	rowCollocation rowKind = iota + 1
+	rowFloating            // total inflow through a floating owner
+	rowBalance             // zero total inflow into a region
+)
+
+type row struct {
+	kind   rowKind
+	region int
+	side   int     // index into regions[region].sides (collocation)
+	owner  int     // floating owner
+	scale  float64 // the row is multiplied by this
+}
+
+// newProblem numbers the unknowns and equations of the mesh.
+func newProblem(m *mesh.Mesh) (*problem, error) {
+	lay := m.Layout
+	if lay == nil {
+		return nil, fmt.Errorf("bem: mesh has no layout")
+	}
+	if len(m.Panels) == 0 {
+		return nil, fmt.Errorf("bem: mesh has no panels")
+	}
+	pr := &problem{m: m, nOwners: len(lay.Owners)}
+	pr.length = lay.Diagonal
+	if !(pr.length > 0) {
+		lo, hi := m.Bounds()
+		pr.length = r2.Norm(r2.Sub(hi, lo))
+	}
+	pr.regions = make([]region, len(lay.Regions))
+	anyFixed := false
+	for _, o := range lay.Owners {
+		if o.Cond.Kind == geom.Potential {
+			anyFixed = true
+		}
+	}
+	for i, d := range lay.Regions {
+		kx, ky := d.Material.Kx, d.Material.Ky
+		if !(kx > 0) || !(ky > 0) || math.IsInf(kx, 0) || math.IsInf(ky, 0) {
+			return nil, fmt.Errorf("bem: region %q has a non-positive material (kx=%g, ky=%g)", d.Name, kx, ky)
+		}
+		r := &pr.regions[i]
+		r.kbar = math.Sqrt(kx * ky)
+		r.ax = math.Pow(ky/kx, 0.25)
+		r.open = d.Background
+		if r.open && lay.Ground != nil {
+			r.image = true
+			r.gy = lay.Ground.Y
+		}
+	}
+
+	np := len(m.Panels)
+	pr.uSlot = make([]slot, np)
+	pr.fSlot = make([]slot, np)
+	pr.fScale = make([]float64, np)
+	pr.floatCol = make([]int, len(lay.Owners))
+	for i := range pr.floatCol {
+		pr.floatCol[i] = -1
+	}
+	col := 0
+	newCol := func() int { col++; return col - 1 }
+	for j, p := range m.Panels {
+		if p.Left < 0 || p.Left >= len(pr.regions) || p.Right >= len(pr.regions) {
+			return nil, fmt.Errorf("bem: panel %d has no valid region on its left", j)
+		}
+		if p.Length() == 0 || math.IsNaN(p.Length()) {
+			return nil, fmt.Errorf("bem: panel %d has zero or undefined length", j)
+		}
+		pr.fScale[j] = pr.regions[p.Left].kbar / pr.length
+		if p.Interface() {
+			pr.uSlot[j] = slot{col: newCol()}
+			pr.fSlot[j] = slot{col: newCol()}
+			continue
+		}
+		switch p.Cond.Kind {
+		case geom.Potential:
+			pr.uSlot[j] = slot{col: -1, owner: p.Owner}
+			pr.fSlot[j] = slot{col: newCol()}
+		case geom.Flux:
+			pr.uSlot[j] = slot{col: newCol()}
+			pr.fSlot[j] = slot{col: -1, owner: p.Owner}
+		case geom.Floating:
+			if p.Owner < 0 {
+				return nil, fmt.Errorf("bem: panel %d is floating but belongs to no body or edge", j)
+			}
+			if pr.floatCol[p.Owner] < 0 {
+				pr.floatCol[p.Owner] = newCol()
+			}
+			pr.uSlot[j] = slot{col: pr.floatCol[p.Owner]}
+			pr.fSlot[j] = slot{col: newCol()}
+		default:
+			return nil, fmt.Errorf("bem: panel %d has no boundary condition", j)
+		}
+		if p.Cond.Kind != geom.Floating && p.Owner < 0 && p.Cond.Value != 0 {
+			return nil, fmt.Errorf("bem: panel %d has a non-zero condition but no owner", j)
+		}
+	}
+	// Sides of each region.
+	for j, p := range m.Panels {
+		pr.addSide(p.Left, j, +1)
+		if p.Interface() {
+			pr.addSide(p.Right, j, -1)
+		}
+	}
+	// Region constants: the potential at infinity of the background (an
+	// unknown when some potential is fixed and no grounded plane holds it at
+	// 0), the residual constant of every closed region.
+	for i := range pr.regions {
+		r := &pr.regions[i]
+		r.constCol = -1
+		if len(r.sides) == 0 {
+			continue
+		}
+		if !r.open || (anyFixed && !r.image) {
+			r.constCol = newCol()
+		}
+	}
+	pr.nUnk = col
+	// Rows.
+	for i := range pr.regions {
+		for s := range pr.regions[i].sides {
+			pr.rows = append(pr.rows, row{kind: rowCollocation, region: i, side: s, scale: 1})
+		}
+	}
+	for o, c := range pr.floatCol {
+		if c < 0 {
+			continue
+		}
+		// Scale: inflow/kbar of the region the owner bounds, per unit length.
+		k := 0.0
+		for _, p := range m.Panels {
+			if p.Owner == o {
+				k = pr.regions[p.Left].kbar
+				break
+			}
+		}
+		pr.rows = append(pr.rows, row{kind: rowFloating, owner: o, scale: 1 / k})
+	}
+	for i := range pr.regions {
+		if pr.regions[i].constCol >= 0 {
+			pr.rows = append(pr.rows, row{kind: rowBalance, region: i, scale: 1 / pr.regions[i].kbar})
+		}
+	}
+	if len(pr.rows) != pr.nUnk {
+		return nil, fmt.Errorf("bem: internal: %d equations for %d unknowns", len(pr.rows), pr.nUnk)
+	}
+	return pr, nil
+}
+
+func (pr *problem) addSide(reg, j int, sign float64) {
+	r := &pr.regions[reg]
+	p := pr.m.Panels[j]
+	a, b := p.A, p.B
+	if sign < 0 {
+		a, b = b, a
+	}
+	ta, tb := r.transform(a), r.transform(b)
+	s := side{panel: j, sign: sign, frame: newFrame(ta, tb)}
+	s.scale = r2.Norm(r2.Sub(b, a)) / s.frame.l / r.kbar
+	if r.image {
+		// The mirror of a->b in the plane, traversed b*->a* so that its
+		// normal is the mirror of the panel's normal.
+		gy := r.gy / r.ax
+		mirror := func(v r2.Vec) r2.Vec { return r2.Vec{X: v.X, Y: 2*gy - v.Y} }
+		s.image = newFrame(mirror(tb), mirror(ta))
+	}
+	r.sides = append(r.sides, s)
+}
+
+// system holds the assembled matrices: A x = rhs0 - B v, with v the owners'
+// condition values and rhs0 the floating owners' net inflows.
+type assembled struct {
+	a *mat.Dense // nUnk x nUnk
+	b *mat.Dense // nUnk x nOwners: coefficients of the owners' known values
+}
+
+// assemble fills the matrices, rows spread over workers goroutines.
+func (pr *problem) assemble(workers int, progress func(done, total int)) *assembled {
+	n := pr.nUnk
+	as := &assembled{a: mat.NewDense(n, n, nil)}
+	nb := pr.nOwners
+	if nb == 0 {
+		nb = 1
+	}
+	as.b = mat.NewDense(n, nb, nil)
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	var wg sync.WaitGroup
+	var mu sync.Mutex
+	done := 0
+	next := 0
+	const chunk = 16
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				mu.Lock()
+				lo := next
+				next += chunk
+				mu.Unlock()
+				if lo >= n {
+					return
+				}
+				hi := min(lo+chunk, n)
+				for i := lo; i < hi; i++ {
+					pr.fillRow(i, as.a.RawRowView(i), as.b.RawRowView(i))
+				}
+				if progress != nil {
+					mu.Lock()
+					done += hi - lo
+					d := done
+					mu.Unlock()
+					progress(d, n)
+				}
+			}
+		}()
+	}
+	wg.Wait()
+	return as
+}
+
+// fillRow writes equation i into arow (unknown coefficients) and brow
+// (coefficients of the owners' known values).
+func (pr *problem) fillRow(i int, arow, brow []float64) {
+	rw := pr.rows[i]
+	put := func(s slot, c float64) {
+		if s.col >= 0 {
+			arow[s.col] += c
+		} else if s.owner >= 0 {
+			brow[s.owner] += c
+		}
+	}
+	switch rw.kind {
+	case rowCollocation:
+		r := &pr.regions[rw.region]
+		me := r.sides[rw.side]
+		x := pr.m.Panels[me.panel].Mid()
+		// 1/2 u(x) + sum_k dl_k u_k - sum_k sl_k F_k - C = 0, with F_k the
+		// inflow into this region (sign * panel inflow into its Left).
+		put(pr.uSlot[me.panel], 0.5)
+		for k := range r.sides {
+			s := &r.sides[k]
+			cu, cf := r.coefficients(s, x, k == rw.side)
+			put(pr.uSlot[s.panel], cu)
+			put(pr.fSlot[s.panel], -cf*s.sign*pr.colScale(s.panel))
+		}
+		if r.constCol >= 0 {
+			arow[r.constCol] -= 1
+		}
+	case rowFloating:
+		for j, p := range pr.m.Panels {
+			if p.Owner == rw.owner && !p.Interface() {
+				put(pr.fSlot[j], rw.scale*p.Length()*pr.colScale(j))
+			}
+		}
+	case rowBalance:
+		r := &pr.regions[rw.region]
+		for k := range r.sides {
+			s := &r.sides[k]
+			put(pr.fSlot[s.panel], rw.scale*s.sign*pr.m.Panels[s.panel].Length()*pr.colScale(s.panel))
+		}
+	}
+}
+
+// colScale is the factor between an inflow unknown's column value and the
+// inflow density: F = colScale * x for unknown columns; known values enter
+// unscaled.
+func (pr *problem) colScale(j int) float64 {
+	if pr.fSlot[j].col >= 0 {
+		return pr.fScale[j]
+	}
+	return 1
+}

@@ -1,0 +1,126 @@
+package bem
+
+import (
+	"math"
+
+	"github.com/rimfield/rimfield/geom"
+	"gonum.org/v1/gonum/spatial/r2"
+)
+
+// winding returns the winding number about p of the region's boundary, the
+// sides taken as oriented edges (region on the left): 1 inside a closed
+// region, 0 in an unbounded one, and 0 (closed) or -1 (unbounded) outside.
+// Points on the boundary get either answer.
+func (r *region) winding(pr *problem, p r2.Vec) int {
+	w := 0
+	for _, s := range r.sides {
+		pn := pr.m.Panels[s.panel]
+		a, b := pn.A, pn.B
+		if s.sign < 0 {
+			a, b = b, a
+		}
+		if a.Y <= p.Y {
+			if b.Y > p.Y && r2.Cross(r2.Sub(b, a), r2.Sub(p, a)) > 0 {
+				w++
+			}
+		} else if b.Y <= p.Y && r2.Cross(r2.Sub(b, a), r2.Sub(p, a)) < 0 {
+			w--
+		}
+	}
+	return w
+}
+
+// Locate returns the region of the domain that contains p, or geom.Outside
+// (inside a body, outside every region of a closed scene, or below a
+// grounded plane).
+func (s *Solution) Locate(p r2.Vec) int {
+	pr := s.pr
+	for i := range pr.regions {
+		r := &pr.regions[i]
+		if r.open {
+			continue
+		}
+		if len(r.sides) > 0 && r.winding(pr, p) == 1 {
+			return i
+		}
+	}
+	for i := range pr.regions {
+		r := &pr.regions[i]
+		if !r.open {
+			continue
+		}
+		if r.image && p.Y <= r.gy {
+			return geom.Outside
+		}
+		if r.winding(pr, p) == 0 {
+			return i
+		}
+	}
+	return geom.Outside
+}
+
+// Eval returns the potential and its gradient at p, from the boundary
+// integral representation of the region containing p. The integrals are
+// exact for the discrete boundary values at any distance from the boundary.
+// Outside the domain it returns NaN values and Region geom.Outside.
+func (s *Solution) Eval(p r2.Vec) Point {
+	reg := s.Locate(p)
+	if reg == geom.Outside {
+		nan := math.NaN()
+		return Point{U: nan, Grad: r2.Vec{X: nan, Y: nan}, Region: geom.Outside}
+	}
+	u, g := s.evalIn(reg, p)
+	return Point{U: u, Grad: g, Region: reg}
+}
+
+// EvalIn evaluates the representation of region reg at p without locating
+// p; p must lie inside that region, off its boundary.
+func (s *Solution) EvalIn(reg int, p r2.Vec) Point {
+	u, g := s.evalIn(reg, p)
+	return Point{U: u, Grad: g, Region: reg}
+}
+
+func (s *Solution) evalIn(reg int, p r2.Vec) (float64, r2.Vec) {
+	r := &s.pr.regions[reg]
+	u := s.Const[reg]
+	var g r2.Vec
+	for k := range r.sides {
+		sd := &r.sides[k]
+		cu, cf := r.coefficients(sd, p, false)
+		gu, gf := r.gradCoefficients(sd, p)
+		uj := s.U[sd.panel]
+		fj := sd.sign * s.F[sd.panel]
+		u += cf*fj - cu*uj
+		g = r2.Add(g, r2.Sub(r2.Scale(fj, gf), r2.Scale(uj, gu)))
+	}
+	return u, g
+}
+
+// Owners returns the integrated results per body and edge, in Layout.Owners
+// order: the length-weighted mean potential, the total inflow into the
+// domain and the length that bounds the domain.
+func (s *Solution) Owners() []OwnerResult {
+	lay := s.Mesh.Layout
+	out := make([]OwnerResult, len(lay.Owners))
+	for i, o := range lay.Owners {
+		out[i].Name = o.Name
+	}
+	for j, p := range s.Mesh.Panels {
+		if p.Owner < 0 || p.Interface() {
+			continue
+		}
+		l := p.Length()
+		o := &out[p.Owner]
+		o.Length += l
+		o.Inflow += s.F[j] * l
+		o.Potential += s.U[j] * l
+	}
+	for i := range out {
+		if out[i].Length > 0 {
+			out[i].Potential /= out[i].Length
+		} else {
+			out[i].Potential = math.NaN()
+		}
+	}
+	return out
+}

@@ -1,0 +1,189 @@
+package bem
+
+import (
+	"math"
+	"testing"
+
+	"github.com/rimfield/rimfield/geom"
+	"gonum.org/v1/gonum/spatial/r2"
+)
+
+// Two materials in series between potentials 1 (x=0) and 0 (x=2), insulated
+// top and bottom, k1 = 1 on 0<x<1, k2 = 4 on 1<x<2, height 1: the flux is
+// 1/(1/k1 + 1/k2) = 0.8 and the interface sits at u = 0.2 (series
+// resistances; Darcy's or Ohm's law, common practice). The exact solution
+// is linear; what error remains comes from the triple points where the
+// interface meets the insulated walls (observed 1e-3 at 24 graded panels
+// per side, 3.3e-4 at 48): tolerance 5e-4 on the inflows, 1e-4 on
+// potentials, 1e-3 on the interface flux away from the triple points.
+func TestTwoRegionsInSeries(t *testing.T) {
+	bl := newBuilder(false)
+	r1 := bl.region("left", 1, 1, false)
+	r2i := bl.region("right", 4, 4, false)
+	hot := bl.owner("hot", pot(1))
+	cold := bl.owner("cold", pot(0))
+	n := 48
+	// Region 1, counter-clockwise: bottom, interface (as a side of r1), top, left.
+	bl.segment(r2.Vec{X: 0, Y: 0}, r2.Vec{X: 1, Y: 0}, n, true, r1, geom.Outside, -1, geom.Insulated)
+	bl.segment(r2.Vec{X: 1, Y: 0}, r2.Vec{X: 1, Y: 1}, n, true, r1, r2i, -1, geom.Condition{})
+	bl.segment(r2.Vec{X: 1, Y: 1}, r2.Vec{X: 0, Y: 1}, n, true, r1, geom.Outside, -1, geom.Insulated)
+	bl.segment(r2.Vec{X: 0, Y: 1}, r2.Vec{X: 0, Y: 0}, n, true, r1, geom.Outside, hot, pot(1))
+	// Region 2: bottom, right, top.
+	bl.segment(r2.Vec{X: 1, Y: 0}, r2.Vec{X: 2, Y: 0}, n, true, r2i, geom.Outside, -1, geom.Insulated)
+	bl.segment(r2.Vec{X: 2, Y: 0}, r2.Vec{X: 2, Y: 1}, n, true, r2i, geom.Outside, cold, pot(0))
+	bl.segment(r2.Vec{X: 2, Y: 1}, r2.Vec{X: 1, Y: 1}, n, true, r2i, geom.Outside, -1, geom.Insulated)
+	msh := bl.mesh()
+	sol, err := Solve(msh, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res := sol.Owners()
+	if relErr(res[hot].Inflow, 0.8) > 5e-4 || relErr(-res[cold].Inflow, 0.8) > 5e-4 {
+		t.Errorf("inflows %v, %v, want 0.8, -0.8", res[hot].Inflow, res[cold].Inflow)
+	}
+	for j, p := range msh.Panels {
+		if p.Interface() && p.Mid().Y > 0.1 && p.Mid().Y < 0.9 {
+			if math.Abs(sol.U[j]-0.2) > 1e-4 {
+				t.Errorf("interface potential %v at %v, want 0.2", sol.U[j], p.Mid())
+			}
+			// Flux into the left region through the interface: -0.8 per
+			// unit length (it leaves region 1).
+			if math.Abs(sol.F[j]+0.8) > 1e-3 {
+				t.Errorf("interface inflow into left %v at %v, want -0.8", sol.F[j], p.Mid())
+			}
+		}
+	}
+	for _, c := range []struct{ x, u float64 }{{0.5, 0.6}, {1.5, 0.1}} {
+		pt := sol.Eval(r2.Vec{X: c.x, Y: 0.5})
+		if math.Abs(pt.U-c.u) > 1e-4 {
+			t.Errorf("u(%v, 0.5) = %v, want %v", c.x, pt.U, c.u)
+		}
+	}
+}
+
+// Anisotropic block kx = 4, ky = 1 on the unit square with the exact
+// solution u = x^2/kx - y^2/ky of div(K grad u) = 0 (direct substitution),
+// whose conormal flux K grad u . n is (2x, -2y) . n. Potential data on x=0
+// and y=0, conormal flux data on x=1 and y=1; u(0.5, 0.5) = 0.0625 - 0.25 =
+// -0.1875. Tolerance 2e-4 (observed ~1e-5 at 4 x 48 graded panels).
+func TestAnisotropicBlock(t *testing.T) {
+	kx, ky := 4.0, 1.0
+	u := func(p r2.Vec) float64 { return p.X*p.X/kx - p.Y*p.Y/ky }
+	kgrad := func(p r2.Vec) r2.Vec { return r2.Vec{X: 2 * p.X, Y: -2 * p.Y} }
+	bl := newBuilder(false)
+	reg := bl.region("block", kx, ky, false)
+	corners := rect(0, 0, 1, 1)
+	potSide := []bool{true, false, false, true} // y=0, x=1, y=1, x=0
+	for s := 0; s < 4; s++ {
+		pts := split(corners[s], corners[(s+1)%4], 48, true)
+		for i := 0; i+1 < len(pts); i++ {
+			a, b := pts[i], pts[i+1]
+			m := r2.Scale(0.5, r2.Add(a, b))
+			c := pot(u(m))
+			if !potSide[s] {
+				n := r2.Unit(r2.Vec{X: b.Y - a.Y, Y: a.X - b.X})
+				c = flux(r2.Dot(kgrad(m), n))
+			}
+			o := bl.owner("", c)
+			bl.segment(a, b, 1, false, reg, geom.Outside, o, c)
+		}
+	}
+	msh := bl.mesh()
+	sol, err := Solve(msh, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pt := sol.Eval(r2.Vec{X: 0.5, Y: 0.5})
+	if math.Abs(pt.U+0.1875) > 2e-4 {
+		t.Errorf("u(0.5, 0.5) = %v, want -0.1875", pt.U)
+	}
+	// Gradient: (2x/kx, -2y/ky) = (0.25, -1).
+	if math.Abs(pt.Grad.X-0.25) > 2e-3 || math.Abs(pt.Grad.Y+1) > 2e-3 {
+		t.Errorf("grad u(0.5, 0.5) = %v, want (0.25, -1)", pt.Grad)
+	}
+	for j, p := range msh.Panels {
+		if p.Cond.Kind == geom.Flux {
+			if d := math.Abs(sol.U[j] - u(p.Mid())); d > 5e-4 {
+				t.Errorf("u on a flux side at %v = %v, want %v", p.Mid(), sol.U[j], u(p.Mid()))
+				break
+			}
+		}
+	}
+}
+
+// An anisotropic strip between potentials 1 (x=0) and 0 (x=L), insulated top
+// and bottom, carries q = kx H / L whatever ky (Darcy's law along x; common
+// practice). kx = 1e-5 m/s, ky = 1e-7 m/s, L = 3, H = 1: q = 3.3333e-6.
+// Tolerance 1e-4 relative.
+func TestAnisotropicStrip(t *testing.T) {
+	bl := newBuilder(false)
+	reg := bl.region("soil", 1e-5, 1e-7, false)
+	hot := bl.owner("up", pot(1))
+	cold := bl.owner("down", pot(0))
+	n := 24
+	bl.segment(r2.Vec{X: 0, Y: 0}, r2.Vec{X: 3, Y: 0}, 3*n, true, reg, geom.Outside, -1, geom.Insulated)
+	bl.segment(r2.Vec{X: 3, Y: 0}, r2.Vec{X: 3, Y: 1}, n, true, reg, geom.Outside, cold, pot(0))
+	bl.segment(r2.Vec{X: 3, Y: 1}, r2.Vec{X: 0, Y: 1}, 3*n, true, reg, geom.Outside, -1, geom.Insulated)
+	bl.segment(r2.Vec{X: 0, Y: 1}, r2.Vec{X: 0, Y: 0}, n, true, reg, geom.Outside, hot, pot(1))
+	sol, err := Solve(bl.mesh(), nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if q := sol.Owners()[hot].Inflow; relErr(q, 1e-5/3) > 1e-4 {
+		t.Errorf("discharge %v, want %v", q, 1e-5/3)
+	}
+}
+
+// An open scene with a dielectric inclusion: a conductor circle of radius a
+// with charge Q inside a concentric dielectric shell (k2, radius c) in a
+// background k1 sits at u = Q/(2 pi) (ln(c/a)/k2 + ln(1/c)/k1) relative to
+// the far field with u_inf = 0 (Gauss's law in each layer; any
+// electrostatics text). Tolerance 1e-4 absolute at 512-gons.
+func TestOpenDielectricShell(t *testing.T) {
+	a, c := 0.5, 2.0
+	k1, k2 := 1.0, 4.0
+	bl := newBuilder(true)
+	shell := bl.region("shell", k2, k2, false)
+	bg := bl.region("air", k1, k1, true)
+	o := bl.owner("wire", floating(1))
+	// Shell: outer ring counter-clockwise (shell on left, background right).
+	bl.ring(ngon(r2.Vec{}, c, 512, true, 0), 1, false, shell, bg, -1, geom.Condition{})
+	bl.ring(ngon(r2.Vec{}, a, 512, false, 0), 1, false, shell, geom.Outside, o, floating(1))
+	sol, err := Solve(bl.mesh(), nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := 1 / (2 * math.Pi) * (math.Log(c/a)/k2 + math.Log(1/c)/k1)
+	if d := math.Abs(sol.Floating[o] - want); d > 1e-4 {
+		t.Errorf("wire potential %v, want %v", sol.Floating[o], want)
+	}
+	// Far field: u = -Q/(2 pi k1) ln r.
+	if pt := sol.Eval(r2.Vec{X: 5, Y: 1}); math.Abs(pt.U+math.Log(math.Hypot(5, 1))/(2*math.Pi)) > 1e-4 {
+		t.Errorf("far-field potential %v", pt.U)
+	}
+}
+
+// A cylinder of radius a at height h above a grounded plane: C = 2 pi k /
+// acosh(h/a); a=1, h=2: C/k = 4.770984 (shared/REFERENCES.md, verified
+// there by image line charges). The plane is not meshed: the image kernel.
+// Tolerance 1e-4 at a 1024-gon (polygon error ~1e-5).
+func TestGroundPlaneCylinder(t *testing.T) {
+	bl := newBuilder(true)
+	bg := bl.region("air", 1, 1, true)
+	o := bl.owner("wire", pot(1))
+	bl.lay.Ground = &geom.Ground{Y: 0}
+	bl.ring(ngon(r2.Vec{X: 0.3, Y: 2}, 1, 1024, false, 0), 1, false, bg, geom.Outside, o, pot(1))
+	sol, err := Solve(bl.mesh(), nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if q := sol.Owners()[o].Inflow; relErr(q, 4.770984) > 1e-4 {
+		t.Errorf("charge %v, want 4.770984", q)
+	}
+	if pt := sol.Eval(r2.Vec{X: 7, Y: 1e-9}); math.Abs(pt.U) > 1e-6 {
+		t.Errorf("potential on the plane %v, want 0", pt.U)
+	}
+	if sol.Locate(r2.Vec{X: 0, Y: -1}) != geom.Outside {
+		t.Errorf("below the plane is not domain")
+	}
+}
