@@ -106,6 +106,10 @@ type arrangement struct {
 	sources []source
 	polys   []polyRef
 	subs    []subSeg
+	// badPoly is the first polygon found with a winding number other than 0
+	// or 1 somewhere (a ring crossing itself, a hole reaching out of its
+	// polygon), beside sub-segment badSub; -1 when none.
+	badPoly, badSub int
 }
 
 // arrange collects, nodes, merges and classifies the segments of the scene.
@@ -172,7 +176,7 @@ func (s *Scene) arrange() (*arrangement, error) {
 	if !(diag > 0) || math.IsInf(diag, 0) {
 		return nil, &Error{Feature: -1, Msg: "the scene's features all sit at one point or span an infinite extent: check the coordinates"}
 	}
-	a := &arrangement{sc: s, diag: diag, tol: CoincidenceTol * diag}
+	a := &arrangement{sc: s, diag: diag, tol: CoincidenceTol * diag, badPoly: -1}
 	if err := a.checkGround(); err != nil {
 		return nil, err
 	}
@@ -368,6 +372,9 @@ func (a *arrangement) classify() {
 			} else {
 				wr -= net[g]
 			}
+			if a.badPoly < 0 && (wl < 0 || wl > 1 || wr < 0 || wr > 1) {
+				a.badPoly, a.badSub = g, i
+			}
 			p := a.polys[g]
 			for k, w := range [2]int{wl, wr} {
 				if w <= 0 {
@@ -405,11 +412,15 @@ type strips struct {
 }
 
 func newStrips(a *arrangement) *strips {
-	n := len(a.subs)
-	mids := make([]float64, n)
-	for i, sg := range a.subs {
-		mids[i] = 0.5 * (a.pos[sg.lo].Y + a.pos[sg.hi].Y)
+	// Horizontal sub-segments never cross a ray under the half-open rule:
+	// leave them out.
+	var mids []float64
+	for _, sg := range a.subs {
+		if y0, y1 := a.pos[sg.lo].Y, a.pos[sg.hi].Y; y0 != y1 {
+			mids = append(mids, 0.5*(y0+y1))
+		}
 	}
+	n := len(mids)
 	slices.Sort(mids)
 	ns := int(2*math.Sqrt(float64(n))) + 1
 	st := &strips{}
@@ -422,6 +433,9 @@ func newStrips(a *arrangement) *strips {
 	st.lists = make([][]int32, len(st.bounds)+1)
 	for i, sg := range a.subs {
 		y0, y1 := a.pos[sg.lo].Y, a.pos[sg.hi].Y
+		if y0 == y1 {
+			continue
+		}
 		if y0 > y1 {
 			y0, y1 = y1, y0
 		}

@@ -37,6 +37,10 @@ func (a *arrangement) regionOf(sd side) int {
 
 func (a *arrangement) layout() (*Layout, error) {
 	s := a.sc
+	if g := a.badPoly; g >= 0 {
+		p := a.polys[g]
+		return nil, s.featErr(p.kind, p.feat, fmt.Sprintf("a polygon's rings cross themselves or each other near %s (a ring that loops over itself, or a hole reaching outside its outer ring); redraw the ring so that it does not cross itself, or split it into separate polygons", a.where(a.mid(&a.subs[a.badSub]))))
+	}
 	if err := a.checkRegions(); err != nil {
 		return nil, err
 	}
