@@ -180,6 +180,9 @@ func (s *Scene) arrange() (*arrangement, error) {
 	if err := a.checkGround(); err != nil {
 		return nil, err
 	}
+	if err := a.checkFlat(); err != nil {
+		return nil, err
+	}
 
 	// Segments, with vertices snapped as they come.
 	vs := newVertexSet(a.tol, lo, npts)
@@ -254,6 +257,37 @@ func finite(p r2.Vec) bool {
 	return !math.IsNaN(p.X) && !math.IsNaN(p.Y) && !math.IsInf(p.X, 0) && !math.IsInf(p.Y, 0)
 }
 
+// checkFlat rejects polygons whose outer ring encloses no area: thinner on
+// average than the coincidence tolerance.
+func (a *arrangement) checkFlat() error {
+	s := a.sc
+	flat := func(r Ring) bool {
+		area, perim := 0.0, 0.0
+		for i, p := range r {
+			q := r[(i+1)%len(r)]
+			area += (p.X-r[0].X)*(q.Y-r[0].Y) - (q.X-r[0].X)*(p.Y-r[0].Y)
+			perim += math.Hypot(q.X-p.X, q.Y-p.Y)
+		}
+		return math.Abs(area)/2 <= a.tol*perim/2
+	}
+	const msg = "a polygon encloses no area (its outer ring folds back on itself); draw it with its real thickness, or use an edge for a line"
+	for i, b := range s.Bodies {
+		for _, pg := range b.Polygons {
+			if len(pg) > 0 && flat(pg[0]) {
+				return s.featErr(srcBody, i, msg)
+			}
+		}
+	}
+	for i, rg := range s.Regions {
+		for _, pg := range rg.Polygons {
+			if len(pg) > 0 && flat(pg[0]) {
+				return s.featErr(srcRegion, i, msg)
+			}
+		}
+	}
+	return nil
+}
+
 // checkGround rejects features of an open scene that reach below its ground
 // plane.
 func (a *arrangement) checkGround() error {
@@ -275,6 +309,18 @@ func (a *arrangement) checkGround() error {
 			for _, r := range pg {
 				if err := below(srcBody, i, r); err != nil {
 					return err
+				}
+				// A conductor resting on the grounded plane is at 0.
+				for _, p := range r {
+					if p.Y > y+a.tol {
+						continue
+					}
+					switch c := b.Cond; {
+					case c.Kind == Potential && c.Value != 0:
+						return s.featErr(srcBody, i, fmt.Sprintf("touches the grounded plane y = %s m at %s but is held at %s%s: a short circuit; lift it off the ground or give it the potential 0", fmtNum(y), a.where(p), fmtNum(c.Value), s.potUnit()))
+					case c.Kind == Floating:
+						return s.featErr(srcBody, i, fmt.Sprintf("is floating and touches the grounded plane y = %s m at %s, which holds it at 0: lift it off the ground or give it the potential 0", fmtNum(y), a.where(p)))
+					}
 				}
 			}
 		}

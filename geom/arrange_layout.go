@@ -39,7 +39,7 @@ func (a *arrangement) layout() (*Layout, error) {
 	s := a.sc
 	if g := a.badPoly; g >= 0 {
 		p := a.polys[g]
-		return nil, s.featErr(p.kind, p.feat, fmt.Sprintf("a polygon's rings cross themselves or each other near %s (a ring that loops over itself, or a hole reaching outside its outer ring); redraw the ring so that it does not cross itself, or split it into separate polygons", a.where(a.mid(&a.subs[a.badSub]))))
+		return nil, s.featErr(p.kind, p.feat, fmt.Sprintf("a polygon's rings cross themselves or each other near %s (a ring that loops over itself, a hole reaching outside its outer ring or overlapping another hole, or a ring running the wrong way round: outer rings counter-clockwise, holes clockwise); redraw the rings so that they do not cross, or split the polygon into separate ones", a.where(a.mid(&a.subs[a.badSub]))))
 	}
 	if err := a.checkRegions(); err != nil {
 		return nil, err

@@ -664,6 +664,18 @@ func TestLayoutGround(t *testing.T) {
 	if ge := geomError(t, layoutErr(sc)); ge.Feature != 4 || !strings.Contains(ge.Msg, "ground") {
 		t.Errorf("below ground: %v", ge)
 	}
+	// Resting on the grounded plane: only at potential 0.
+	sc.Bodies[0].Polygons[0][0] = rect(0, 0, 1, 1)
+	if ge := geomError(t, layoutErr(sc)); ge.Feature != 4 || !strings.Contains(ge.Msg, "short circuit") {
+		t.Errorf("on the ground at 1 V: %v", ge)
+	}
+	sc.Bodies[0].Cond = Condition{Kind: Floating}
+	if ge := geomError(t, layoutErr(sc)); ge.Feature != 4 || !strings.Contains(ge.Msg, "floating") {
+		t.Errorf("floating on the ground: %v", ge)
+	}
+	sc.Bodies[0].Cond = pot(0)
+	mustLayout(t, sc)
+	sc.Bodies[0].Cond = pot(1)
 	sc.Bodies[0].Polygons[0][0] = rect(0, 0.5, 1, 1)
 	l := mustLayout(t, sc)
 	if l.Ground == nil || l.Ground.Y != 0 {
@@ -1044,5 +1056,38 @@ func TestLayoutRandomStars(t *testing.T) {
 		if !near(got, want, tolExact) {
 			t.Errorf("case %d (open %v): area %.15g, want %.15g", k, open, got, want)
 		}
+	}
+}
+
+func TestLayoutBadRings(t *testing.T) {
+	blk := func(pg Polygon) *Scene {
+		return &Scene{
+			Problem: Problem{Physics: Laplace},
+			Regions: []Region{region(0, "r", Polygon{rect(-5, -5, 5, 5)})},
+			Bodies:  []Body{body(7, "b", Insulated, pg)},
+		}
+	}
+	for name, pg := range map[string]Polygon{
+		"bow tie":         {ring(0, 0, 1, 1, 1, 0, 0, 1)},
+		"clockwise":       {reversed(rect(0, 0, 1, 1))},
+		"hole sticks out": {rect(0, 0, 2, 2), reversed(rect(1, 1, 3, 3))},
+		"two points":      {ring(0, 0, 1, 1)},
+		"flat":            {ring(0, 0, 1, 1, 2, 2)},
+		"folded":          {ring(0, 0, 2, 0, 1, 0)},
+		"not a number":    {ring(0, 0, 1, 0, math.NaN(), 1)},
+	} {
+		if ge := geomError(t, layoutErr(blk(pg))); ge.Feature != 7 || ge.Member != "geometry" {
+			t.Errorf("%s: %v", name, ge)
+		}
+	}
+	// Touching itself at a vertex, or a hole touching its outer ring, is
+	// fine.
+	l := mustLayout(t, blk(Polygon{ring(0, 0, 1, 0, 1, 1, 2, 1, 2, 2, 1, 2, 1, 1, 0, 1)}))
+	if got := boundaryArea(l); !near(got, 98, tolExact) {
+		t.Errorf("figure eight: area %.15g, want 98", got)
+	}
+	l = mustLayout(t, blk(Polygon{rect(0, 0, 3, 3), reversed(rect(0, 1, 1, 2))}))
+	if got := boundaryArea(l); !near(got, 92, tolExact) {
+		t.Errorf("hole on the outer ring: area %.15g, want 92", got)
 	}
 }
