@@ -60,6 +60,9 @@ const (
 
 	// stepsPerPanel: integration steps of 1/h per local panel length.
 	stepsPerPanel = 8
+	// capPasses: passes that grade pieces down to a short neighbouring
+	// piece's panels (see place).
+	capPasses = 4
 )
 
 // Options controls panel sizes. The zero value gives automatic sizing with
@@ -170,9 +173,8 @@ func Build(l *geom.Layout, o Options) (*Mesh, error) {
 		m.Singular = append(m.Singular, b.verts[v])
 	}
 	sStart := b.arcStarts()
-	var ev evaluator
-	for i := range l.Pieces {
-		ts := b.pieceNodes(&ev, i, h0*scale[b.comp[i]], true)
+	nodes, _ := b.place(h0, scale, true)
+	for i, ts := range nodes {
 		pc := l.Pieces[i]
 		d := r2.Sub(pc.B, pc.A)
 		prev := pc.A
@@ -445,12 +447,80 @@ func (b *builder) nominal() (float64, []float64) {
 
 // count returns the total panel count for nominal size h0.
 func (b *builder) count(h0 float64, scale []float64) int {
-	var ev evaluator
-	n := 0
-	for i := 0; i < b.n; i++ {
-		n += len(b.pieceNodes(&ev, i, h0*scale[b.comp[i]], false)) - 1
-	}
+	_, n := b.place(h0, scale, false)
 	return n
+}
+
+// place divides every piece for nominal size h0 (times the component's
+// scale) and returns the nodes of each piece (when keep is set) and the
+// total panel count.
+//
+// A piece can only be divided into whole panels, so a piece shorter than
+// the local size (or a little longer) gets panels shorter than its
+// neighbours'. Where, at a vertex, a piece's end panel is more than Grading
+// times longer than the shortest end panel s there, a further pass divides
+// that piece again with h <= s + ln(Grading)*d, d the distance from the
+// vertex, so that it grades down to its short neighbour; up to capPasses
+// passes, as a piece divided again may leave a shorter end panel.
+func (b *builder) place(h0 float64, scale []float64, keep bool) ([][]float64, int) {
+	var ev evaluator
+	nodes := make([][]float64, b.n)
+	endLen := make([][2]float64, b.n)
+	for i := 0; i < b.n; i++ {
+		ts := b.pieceNodes(&ev, i, h0*scale[b.comp[i]], noCaps, true)
+		nodes[i] = ts
+		endLen[i] = [2]float64{ts[1] - ts[0], ts[len(ts)-1] - ts[len(ts)-2]}
+	}
+	caps := make([][2]float64, b.n)
+	for i := range caps {
+		caps[i] = noCaps
+	}
+	changed := make([]bool, b.n)
+	for pass := 0; pass < capPasses; pass++ {
+		any := false
+		for _, ends := range b.inc {
+			s := math.Inf(1)
+			for _, e := range ends {
+				s = math.Min(s, endLen[e.piece()][btoi(e.isB())])
+			}
+			for _, e := range ends {
+				i, k := e.piece(), btoi(e.isB())
+				if endLen[i][k] > b.o.Grading*s && s < caps[i][k] {
+					caps[i][k] = s
+					changed[i], any = true, true
+				}
+			}
+		}
+		if !any {
+			break
+		}
+		for i := range changed {
+			if changed[i] {
+				ts := b.pieceNodes(&ev, i, h0*scale[b.comp[i]], caps[i], true)
+				nodes[i] = ts
+				endLen[i] = [2]float64{ts[1] - ts[0], ts[len(ts)-1] - ts[len(ts)-2]}
+				changed[i] = false
+			}
+		}
+	}
+	total := 0
+	for _, ts := range nodes {
+		total += len(ts) - 1
+	}
+	if !keep {
+		nodes = nil
+	}
+	return nodes, total
+}
+
+// noCaps: no size caps at a piece's ends.
+var noCaps = [2]float64{math.Inf(1), math.Inf(1)}
+
+func btoi(b bool) int {
+	if b {
+		return 1
+	}
+	return 0
 }
 
 // searchPanels finds the nominal size giving about want panels. The count
@@ -463,7 +533,7 @@ func (b *builder) searchPanels(want int, scale []float64) (float64, error) {
 			return 0, fmt.Errorf("mesh: %d panels asked for, but this layout needs at least %d (at least %d per piece on %d pieces, more where boundaries are close); ask for %d or more",
 				want, cMin, b.o.MinPerPiece, b.n, cMin)
 		}
-		return hBig, nil
+		return b.shrink(hBig, cMin, scale), nil
 	}
 	good := func(c int) bool { return math.Abs(float64(c-want)) <= panelsAim*float64(want) }
 	// Bracket: hLo gives at least want panels, hHi fewer.
@@ -484,6 +554,9 @@ func (b *builder) searchPanels(want int, scale []float64) (float64, error) {
 			return hLo, nil
 		}
 		if good(cHi) {
+			if hHi == hBig {
+				return b.shrink(hBig, cMin, scale), nil
+			}
 			return hHi, nil
 		}
 		// Secant on log(count) against log(h0), kept inside the bracket.
@@ -512,17 +585,37 @@ func (b *builder) searchPanels(want int, scale []float64) (float64, error) {
 	return best, nil
 }
 
+// shrink returns the smallest nominal size (within 1%) below h that still
+// gives c panels, so that a mesh with as few panels as the layout allows
+// does not report an arbitrary huge nominal size.
+func (b *builder) shrink(h float64, c int, scale []float64) float64 {
+	lo, hi := h/2, h
+	for b.count(lo, scale) == c && lo > b.flo {
+		hi, lo = lo, lo/2
+	}
+	for hi/lo > 1.01 {
+		m := math.Sqrt(lo * hi)
+		if b.count(m, scale) == c {
+			hi = m
+		} else {
+			lo = m
+		}
+	}
+	return hi
+}
+
 // evaluator holds scratch space for placing nodes on one piece at a time.
 type evaluator struct {
-	near []r2.Vec
+	near []int32
 	ts   []float64
 	fs   []float64
 }
 
 // pieceNodes returns the node positions (distance from A, first 0, last the
-// piece length) on piece i for the nominal size hn. With keep false only
-// the number of nodes is meaningful.
-func (b *builder) pieceNodes(ev *evaluator, i int, hn float64, keep bool) []float64 {
+// piece length) on piece i for the nominal size hn, with the size growing
+// from at most caps[0] at A and caps[1] at B at the grading rate. With keep
+// false only the number of nodes is meaningful.
+func (b *builder) pieceNodes(ev *evaluator, i int, hn float64, caps [2]float64, keep bool) []float64 {
 	L := b.lens[i]
 	hmin := b.o.Smallest * hn
 	floor := math.Max(floorRatio*hmin, b.flo)
@@ -537,11 +630,12 @@ func (b *builder) pieceNodes(ev *evaluator, i int, hn float64, keep bool) []floa
 	h := func(t float64) float64 {
 		p := r2.Add(pc.A, r2.Scale(t, dir))
 		s := hn
-		for _, v := range ev.near {
-			if g := math.Max(hmin, b.lg*r2.Norm(r2.Sub(p, v))); g < s {
+		for _, j := range ev.near {
+			if g := math.Max(hmin, b.lg*r2.Norm(r2.Sub(p, b.sgrid.pts[j]))); g < s {
 				s = g
 			}
 		}
+		s = math.Min(s, math.Min(caps[0]+b.lg*t, caps[1]+b.lg*(L-t)))
 		for k+2 < len(gt) && gt[k+1] < t {
 			k++
 		}
@@ -737,7 +831,8 @@ func (g *segGrid) index(p r2.Vec) (int, int) {
 	return min(max(x, 0), g.nx-1), min(max(y, 0), g.ny-1)
 }
 
-// pointGrid holds the singular vertices on the same cells as a segGrid.
+// pointGrid holds points (singular vertices, size sources) on the cells of
+// a segGrid.
 type pointGrid struct {
 	g     *segGrid
 	pts   []r2.Vec
@@ -753,8 +848,9 @@ func newPointGrid(pts []r2.Vec, g *segGrid) *pointGrid {
 	return pg
 }
 
-// near appends to dst the points within distance r of segment ab.
-func (pg *pointGrid) near(dst []r2.Vec, a, b r2.Vec, r float64) []r2.Vec {
+// near appends to dst the indices of the points within distance r of
+// segment ab.
+func (pg *pointGrid) near(dst []int32, a, b r2.Vec, r float64) []int32 {
 	if len(pg.pts) == 0 {
 		return dst
 	}
@@ -762,9 +858,9 @@ func (pg *pointGrid) near(dst []r2.Vec, a, b r2.Vec, r float64) []r2.Vec {
 	x0, y0 := g.index(r2.Vec{X: math.Min(a.X, b.X) - r, Y: math.Min(a.Y, b.Y) - r})
 	x1, y1 := g.index(r2.Vec{X: math.Max(a.X, b.X) + r, Y: math.Max(a.Y, b.Y) + r})
 	if (x1-x0+1)*(y1-y0+1) > len(pg.pts) {
-		for _, p := range pg.pts {
+		for k, p := range pg.pts {
 			if d, _ := segDist(p, a, b); d <= r {
-				dst = append(dst, p)
+				dst = append(dst, int32(k))
 			}
 		}
 		return dst
@@ -773,7 +869,7 @@ func (pg *pointGrid) near(dst []r2.Vec, a, b r2.Vec, r float64) []r2.Vec {
 		for y := y0; y <= y1; y++ {
 			for _, k := range pg.cells[y*g.nx+x] {
 				if d, _ := segDist(pg.pts[k], a, b); d <= r {
-					dst = append(dst, pg.pts[k])
+					dst = append(dst, k)
 				}
 			}
 		}
