@@ -519,7 +519,13 @@ func (s *Scene) featID(kind srcKind, feat int) (int, string) {
 // featRef names a feature in a message: `body 3 ("gate")`.
 func (s *Scene) featRef(kind srcKind, feat int) string {
 	f, name := s.featID(kind, feat)
-	part := map[srcKind]string{srcBody: "body", srcRegion: "region", srcEdge: "edge"}[kind]
+	part := PartEdge
+	switch kind {
+	case srcBody:
+		part = PartBody
+	case srcRegion:
+		part = PartRegion
+	}
 	return fmt.Sprintf("%s %d (%q)", part, f, name)
 }
 

@@ -265,6 +265,34 @@ func TestLayoutNotch(t *testing.T) {
 	}
 }
 
+// A body resting on the region's top edge from outside, sharing part of
+// it: the shared stretch carries the body's condition, nothing is cut out.
+func TestLayoutBodyOnEdge(t *testing.T) {
+	sc := notched()
+	sc.Bodies[0].Polygons[0][0] = ring(4, 10, 6, 10, 6, 12, 5, 12, 4, 12)
+	sc.Bodies[0].Cond = Condition{Kind: Flux, Value: 2.5}
+	l := mustLayout(t, sc)
+	if got := lengthWhere(l, func(p Piece) bool { return p.Owner == 0 && p.Cond == sc.Bodies[0].Cond }); !near(got, 2, tolExact) {
+		t.Errorf("length under the body %.15g, want 2", got)
+	}
+	if got := lengthWhere(l, func(p Piece) bool { return p.Owner == -1 }); !near(got, 38, tolExact) {
+		t.Errorf("insulated length %.15g, want 38", got)
+	}
+	if got := boundaryArea(l); !near(got, 100, tolExact) {
+		t.Errorf("area %.15g, want 100", got)
+	}
+	// Resting on it from inside: the body is a hole in the block with a
+	// wall on the block's outline.
+	sc.Bodies[0].Polygons[0][0] = ring(4, 8, 6, 8, 6, 10, 5, 10, 4, 10)
+	l = mustLayout(t, sc)
+	if got := lengthWhere(l, func(p Piece) bool { return p.Owner == 0 }); !near(got, 6, tolExact) {
+		t.Errorf("inside: body length %.15g, want 6", got)
+	}
+	if got := boundaryArea(l); !near(got, 96, tolExact) {
+		t.Errorf("inside: area %.15g, want 96", got)
+	}
+}
+
 // transform moves every point of the scene by p -> s*R(theta)*p + off.
 func transform(sc *Scene, s, theta float64, off r2.Vec) {
 	c, sn := math.Cos(theta), math.Sin(theta)
