@@ -186,7 +186,7 @@ func (s *Scene) arrange() (*arrangement, error) {
 
 	// Segments, with vertices snapped as they come.
 	vs := newVertexSet(a.tol, lo, npts)
-	var segs []rawSeg
+	segs := make([]rawSeg, 0, npts)
 	addRing := func(src int32, r []r2.Vec, closed bool) {
 		n := len(r)
 		ids := make([]int32, n)
