@@ -40,7 +40,8 @@ const (
 	// cannot cost more than a fraction of a panel).
 	gapReach = 4.0
 	// gapSampling: the gap is sampled along a piece with spacing at most
-	// gapSampling times the local gap, and interpolated linearly.
+	// gapSampling times the distance to the nearest piece that does not
+	// touch it, and interpolated linearly.
 	gapSampling = 0.25
 
 	// floorRatio: no size target falls below floorRatio times the smallest
@@ -63,6 +64,10 @@ const (
 	// capPasses: passes that grade pieces down to a short neighbouring
 	// piece's panels (see place).
 	capPasses = 4
+
+	// maxPanels: Build refuses to make more panels than this (a size
+	// given in the wrong unit, say).
+	maxPanels = 4_000_000
 )
 
 // Options controls panel sizes. The zero value gives automatic sizing with
@@ -144,8 +149,15 @@ func (o Options) resolve() (Options, error) {
 // interface), where the condition changes between two boundary pieces, where
 // three or more pieces meet, and where a chain of pieces ends.
 //
+// A piece next to a much shorter one is divided again so that its panels
+// grade down to the short piece's (see place).
+//
 // Panels come grouped by piece in the layout's order, each piece's panels
 // from A to B, and inherit Left, Right, Owner and Cond.
+//
+// Build returns an error for a nil or empty layout, non-finite coordinates,
+// a zero-length piece, invalid options, a panel count below what the layout
+// needs, and sizes that would make more than a few million panels.
 func Build(l *geom.Layout, o Options) (*Mesh, error) {
 	if l == nil || len(l.Pieces) == 0 {
 		return nil, errors.New("mesh: the layout has no boundary pieces; the scene needs at least one body or region")
@@ -162,6 +174,12 @@ func Build(l *geom.Layout, o Options) (*Mesh, error) {
 	b.sampleGaps()
 
 	h0, scale := b.nominal()
+	if o.Panels > maxPanels {
+		return nil, fmt.Errorf("mesh: %d panels asked for, more than the %d this program makes; ask for fewer", o.Panels, maxPanels)
+	}
+	if o.Panels == 0 && b.total/h0 > maxPanels {
+		return nil, fmt.Errorf("mesh: panel size %g m would make more than %d panels on %g m of boundary; give a larger size (in metres) or a panel count", h0, maxPanels, b.total)
+	}
 	if o.Panels > 0 {
 		h0, err = b.searchPanels(o.Panels, scale)
 		if err != nil {
@@ -467,7 +485,7 @@ func (b *builder) place(h0 float64, scale []float64, keep bool) ([][]float64, in
 	nodes := make([][]float64, b.n)
 	endLen := make([][2]float64, b.n)
 	for i := 0; i < b.n; i++ {
-		ts := b.pieceNodes(&ev, i, h0*scale[b.comp[i]], noCaps, true)
+		ts := b.pieceNodes(&ev, i, h0*scale[b.comp[i]], noCaps)
 		nodes[i] = ts
 		endLen[i] = [2]float64{ts[1] - ts[0], ts[len(ts)-1] - ts[len(ts)-2]}
 	}
@@ -477,7 +495,7 @@ func (b *builder) place(h0 float64, scale []float64, keep bool) ([][]float64, in
 	}
 	changed := make([]bool, b.n)
 	for pass := 0; pass < capPasses; pass++ {
-		any := false
+		again := false
 		for _, ends := range b.inc {
 			s := math.Inf(1)
 			for _, e := range ends {
@@ -487,16 +505,16 @@ func (b *builder) place(h0 float64, scale []float64, keep bool) ([][]float64, in
 				i, k := e.piece(), btoi(e.isB())
 				if endLen[i][k] > b.o.Grading*s && s < caps[i][k] {
 					caps[i][k] = s
-					changed[i], any = true, true
+					changed[i], again = true, true
 				}
 			}
 		}
-		if !any {
+		if !again {
 			break
 		}
 		for i := range changed {
 			if changed[i] {
-				ts := b.pieceNodes(&ev, i, h0*scale[b.comp[i]], caps[i], true)
+				ts := b.pieceNodes(&ev, i, h0*scale[b.comp[i]], caps[i])
 				nodes[i] = ts
 				endLen[i] = [2]float64{ts[1] - ts[0], ts[len(ts)-1] - ts[len(ts)-2]}
 				changed[i] = false
@@ -613,9 +631,8 @@ type evaluator struct {
 
 // pieceNodes returns the node positions (distance from A, first 0, last the
 // piece length) on piece i for the nominal size hn, with the size growing
-// from at most caps[0] at A and caps[1] at B at the grading rate. With keep
-// false only the number of nodes is meaningful.
-func (b *builder) pieceNodes(ev *evaluator, i int, hn float64, caps [2]float64, keep bool) []float64 {
+// from at most caps[0] at A and caps[1] at B at the grading rate.
+func (b *builder) pieceNodes(ev *evaluator, i int, hn float64, caps [2]float64) []float64 {
 	L := b.lens[i]
 	hmin := b.o.Smallest * hn
 	floor := math.Max(floorRatio*hmin, b.flo)
@@ -657,20 +674,15 @@ func (b *builder) pieceNodes(ev *evaluator, i int, hn float64, caps [2]float64, 
 		if tn > L || L-tn < 1e-3*dt {
 			tn = L
 		}
-		hn := h(tn)
-		F += 0.5 * (tn - t) * (1/ht + 1/hn)
-		t, ht = tn, hn
-		if keep {
-			ev.ts = append(ev.ts, t)
-			ev.fs = append(ev.fs, F)
-		}
+		hNext := h(tn)
+		F += 0.5 * (tn - t) * (1/ht + 1/hNext)
+		t, ht = tn, hNext
+		ev.ts = append(ev.ts, t)
+		ev.fs = append(ev.fs, F)
 	}
 	n := int(math.Ceil(F * (1 - 1e-9)))
 	if n < b.o.MinPerPiece {
 		n = b.o.MinPerPiece
-	}
-	if !keep {
-		return make([]float64, n+1)
 	}
 	nodes := make([]float64, n+1)
 	j := 0

@@ -507,6 +507,8 @@ func TestErrors(t *testing.T) {
 		{"smallest 2", squareRegion(), Options{Smallest: 2}, "smallest"},
 		{"gap factor", squareRegion(), Options{GapFactor: -1}, "gap factor"},
 		{"min per piece", squareRegion(), Options{MinPerPiece: -1}, "per piece"},
+		{"size in the wrong unit", squareRegion(), Options{Size: 1e-9}, "larger size"},
+		{"too many panels", squareRegion(), Options{Panels: 1e8}, "ask for fewer"},
 	} {
 		_, err := Build(c.l, c.o)
 		if err == nil || !strings.HasPrefix(err.Error(), "mesh: ") || !strings.Contains(err.Error(), c.want) {
@@ -581,5 +583,61 @@ func TestRandomPolygons(t *testing.T) {
 				t.Errorf("trial %d: Panels %d gave %d", trial, o.Panels, got)
 			}
 		}
+	}
+}
+
+func TestMergeTolerance(t *testing.T) {
+	// Endpoints that differ by rounding (1e-15 m on a 1 m square, below
+	// 1e-12 of the diagonal) are the same vertex: no chain ends, no
+	// grading, one chain for S.
+	l := squareRegion()
+	l.Pieces[1].A.X += 1e-15
+	l.Pieces[2].B.Y -= 1e-15
+	m := mustBuild(t, l, Options{Size: 0.1})
+	if len(m.Singular) != 0 || len(m.Panels) != 40 {
+		t.Errorf("graded %v, %d panels; want none and 40", m.Singular, len(m.Panels))
+	}
+	last := m.Panels[len(m.Panels)-1]
+	if math.Abs(last.S-3.95) > 1e-12 {
+		t.Errorf("last panel S = %g, want 3.95 (one chain)", last.S)
+	}
+	// 1e-6 apart is a real gap: two chain ends, both graded.
+	l = squareRegion()
+	l.Pieces[1].A.X += 1e-6
+	if m := mustBuild(t, l, Options{Size: 0.1}); len(m.Singular) != 2 {
+		t.Errorf("broken chain: graded %v, want the two ends", m.Singular)
+	}
+}
+
+func TestShortPiece(t *testing.T) {
+	// A 2 x 1 region whose bottom is split (straight on, no change of
+	// condition) into 1.99 m and 0.01 m: the short piece is one panel of
+	// 0.01 and the long one grades down to it; neighbouring panels differ
+	// by at most the grading ratio (5% margin for the integration).
+	pts := []r2.Vec{{X: 0, Y: 0}, {X: 1.99, Y: 0}, {X: 2, Y: 0}, {X: 2, Y: 1}, {X: 0, Y: 1}}
+	m := mustBuild(t, layout(ring(pts, 0, geom.Outside, -1, geom.Insulated), 0, 1, false), Options{Size: 0.1})
+	if len(m.Singular) != 0 {
+		t.Errorf("graded %v, want none", m.Singular)
+	}
+	ratioCheck(t, "short piece", m.Panels, true, defaultGrading*1.05)
+}
+
+func TestAutoPerComponent(t *testing.T) {
+	// A 100 m box region and, apart from it, a 0.1 m square region: the
+	// automatic size is set by the box (about 1 m), but the small square,
+	// a separate group of pieces, gets its length over 24 (6 panels a
+	// side). With Size given it gets one panel a side.
+	ps := ring(rect(0, 0, 100, 100), 0, geom.Outside, -1, geom.Insulated)
+	ps = append(ps, ring(rect(200, 0, 200.1, 0.1), 1, geom.Outside, -1, geom.Insulated)...)
+	l := layout(ps, 0, 2, false)
+	small := func(m *Mesh) int {
+		s := m.Summary()
+		return s.PerRegion[1].Panels
+	}
+	if n := small(mustBuild(t, l, Options{})); n != 24 {
+		t.Errorf("automatic: %d panels on the small square, want 24", n)
+	}
+	if n := small(mustBuild(t, l, Options{Size: 1})); n != 4 {
+		t.Errorf("Size 1: %d panels on the small square, want 4", n)
 	}
 }
