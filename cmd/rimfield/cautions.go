@@ -1,0 +1,133 @@
+package main
+
+import (
+	"fmt"
+
+	"github.com/rimfield/rimfield/geom"
+	"github.com/rimfield/rimfield/mesh"
+	"gonum.org/v1/gonum/spatial/r2"
+)
+
+// maxWhere is the number of locations listed with one caution.
+const maxWhere = 10
+
+// cautionsFor returns the limits of the model that apply to a meshed scene;
+// CAUTIONS.md explains each topic at length.
+func cautionsFor(sc *geom.Scene, m *mesh.Mesh) []caution {
+	lay := m.Layout
+	out := []caution{{
+		Topic: "2d_idealisation",
+		Text:  "the cross-section is taken as infinitely long: results are per metre of length, and ends and 3D effects are ignored",
+	}}
+	if c, ok := singularCorners(m); ok {
+		out = append(out, c)
+	}
+	if c, ok := truncatedDomain(m); ok {
+		out = append(out, c)
+	}
+	for _, d := range lay.Regions {
+		if !d.Material.Isotropic() {
+			out = append(out, caution{
+				Topic: "anisotropy",
+				Text:  "a region is anisotropic with principal axes along x and y; check that the soil or material really is, and how well kx and ky are known",
+			})
+			break
+		}
+	}
+	switch sc.Problem.Physics {
+	case geom.Electrostatic:
+		out = append(out, caution{
+			Topic: "breakdown",
+			Text:  "whether a field strength is safe depends on gap, pressure, humidity and surface state, not on the field alone; use the clearances of the applicable electrical safety standards",
+		})
+	case geom.Seepage:
+		out = append(out,
+			caution{
+				Topic: "exit_gradient",
+				Text:  "the exit gradient at the toe of a structure is infinite in theory and its computed value depends on the mesh; piping and heave checks need the safety factors of the applicable codes",
+			},
+			caution{
+				Topic: "steady_state",
+				Text:  "seepage is steady and confined: no transient, no free surface, no change of permeability with time; hydraulic conductivity is rarely known within a factor of ten",
+			})
+	}
+	return out
+}
+
+// singularCorners reports the vertices the mesh grades toward: corners
+// that stick into the domain, tips, changes of condition and junctions,
+// where the field (or flux) is infinite in theory. Near a corner with
+// domain-side opening beta the field goes like r^(pi/beta - 1), and where a
+// fixed potential meets a fixed flux like r^(pi/(2 beta) - 1): the local
+// separable solutions of Laplace's equation in a wedge (any potential-theory
+// text; e.g. Jackson, Classical Electrodynamics, sec. 2.11).
+func singularCorners(m *mesh.Mesh) (caution, bool) {
+	if len(m.Singular) == 0 {
+		return caution{}, false
+	}
+	// The boundary at each vertex: the owner of a panel ending there.
+	names := map[r2.Vec]string{}
+	for _, p := range m.Panels {
+		if name := ownerName(m.Layout, p.Owner); name != "" {
+			for _, v := range [2]r2.Vec{p.A, p.B} {
+				if _, ok := names[v]; !ok {
+					names[v] = name
+				}
+			}
+		}
+	}
+	var where []location
+	for _, v := range m.Singular {
+		if len(where) == maxWhere {
+			break
+		}
+		where = append(where, location{X: number(v.X), Y: number(v.Y), Boundary: names[v]})
+	}
+	text := fmt.Sprintf("%d corner(s), tip(s) or change(s) of condition where the field is infinite in theory: values on the panels next to them depend on the mesh; round sharp corners (or read values a little away from them) and re-run with more panels to see how much they move", len(m.Singular))
+	if len(m.Singular) > len(where) {
+		text += fmt.Sprintf(" (the first %d are listed)", len(where))
+	}
+	return caution{Topic: "singular_corners", Text: text, Where: where}, true
+}
+
+// ownerName returns the name of an owner index, or "" for -1.
+func ownerName(lay *geom.Layout, i int) string {
+	if i >= 0 && i < len(lay.Owners) {
+		return lay.Owners[i].Name
+	}
+	return ""
+}
+
+// truncatedDomain reports insulated walls of a closed scene: the outer
+// boundary of a region that no edge covers. They are exact for impervious
+// boundaries and symmetry lines, but a finite box cut out of a larger domain
+// changes the answer.
+func truncatedDomain(m *mesh.Mesh) (caution, bool) {
+	lay := m.Layout
+	if lay.Open {
+		return caution{}, false
+	}
+	total := 0.0
+	regions := map[string]bool{}
+	var names []string
+	for _, p := range m.Panels {
+		if p.Interface() || p.Owner >= 0 {
+			continue
+		}
+		total += p.Length()
+		if p.Left >= 0 && p.Left < len(lay.Regions) {
+			if n := lay.Regions[p.Left].Name; !regions[n] {
+				regions[n] = true
+				names = append(names, n)
+			}
+		}
+	}
+	if total == 0 {
+		return caution{}, false
+	}
+	return caution{
+		Topic: "truncated_domain",
+		Text: fmt.Sprintf("%.4g m of insulated (zero-flux) wall bounds the domain (regions %q): exact for impervious boundaries and symmetry lines, but if a wall only cuts a larger domain short, the results depend on where it is; move it farther out and re-run to see how much",
+			total, names),
+	}, true
+}

@@ -1,0 +1,154 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"strings"
+	"text/tabwriter"
+
+	"github.com/rimfield/rimfield/geom"
+	"github.com/rimfield/rimfield/mesh"
+)
+
+const checkAbout = `
+Reads and validates the scene, works out the boundaries (bodies subtracted
+from regions, interfaces between regions), builds the panels and prints a
+summary: physics, unit, open or closed domain, the bodies and edges with
+their conditions in SI units and their panel counts, the regions with their
+materials, the smallest and largest panel, warnings and cautions. Nothing is
+solved and nothing is written. The exit status is 0 for a valid scene.`
+
+func runCheck(args []string, stdout, stderr io.Writer) error {
+	cl := newCommandLine("check", "rimfield check SCENE [flags]", checkAbout)
+	panels := cl.fs.Int("panels", 0, "approximate total number of boundary panels, a count (0: chosen automatically), as solve --panels")
+	if helped, err := cl.parse(args, stdout); helped || err != nil {
+		return err
+	}
+	pos, err := cl.positional("SCENE")
+	if err != nil {
+		return err
+	}
+	if *panels < 0 {
+		return usagef("check: --panels %d is negative; give a panel count, or 0 for automatic", *panels)
+	}
+	sc, m, err := prepare(pos[0], *panels)
+	if err != nil {
+		return err
+	}
+	_, err = io.WriteString(stdout, checkSummary(pos[0], sc, m))
+	return err
+}
+
+// checkSummary describes a meshed scene for a person.
+func checkSummary(path string, sc *geom.Scene, m *mesh.Mesh) string {
+	lay := m.Layout
+	u := unitsOf(sc.Problem.Physics)
+	var b strings.Builder
+	domain := "closed (bounded by its regions)"
+	if lay.Open {
+		domain = "open (extends to infinity)"
+	}
+	fmt.Fprintf(&b, "scene    %s\n", path)
+	fmt.Fprintf(&b, "physics  %s\n", sc.Problem.Physics)
+	fmt.Fprintf(&b, "unit     %s (coordinates; results are SI)\n", sceneUnit(sc))
+	fmt.Fprintf(&b, "domain   %s\n", domain)
+	fmt.Fprintf(&b, "features %s, %s, %s\n", plural(len(sc.Bodies), "body", "bodies"),
+		plural(len(sc.Regions), "region", "regions"), plural(len(sc.Edges), "edge", "edges"))
+
+	if len(lay.Regions) > 0 {
+		b.WriteString("\nregions\n")
+		tw := tabwriter.NewWriter(&b, 0, 0, 2, ' ', 0)
+		for _, d := range lay.Regions {
+			fmt.Fprintf(tw, "  %s\t%s\n", d.Name, describeMaterial(sc.Problem.Physics, d.Material, u))
+		}
+		tw.Flush()
+	}
+
+	sum := m.Summary()
+	length := make([]float64, len(lay.Owners))
+	for _, p := range m.Panels {
+		if p.Owner >= 0 && p.Owner < len(length) && !p.Interface() {
+			length[p.Owner] += p.Length()
+		}
+	}
+	if len(lay.Owners) > 0 {
+		b.WriteString("\nbodies and edges\n")
+		tw := tabwriter.NewWriter(&b, 0, 0, 2, ' ', 0)
+		fmt.Fprintf(tw, "  name\tpart\tcondition\tpanels\tlength (m)\n")
+		for i, o := range lay.Owners {
+			n := 0
+			if i < len(sum.PerOwner) {
+				n = sum.PerOwner[i].Panels
+			}
+			fmt.Fprintf(tw, "  %s\t%s\t%s\t%d\t%.6g\n", o.Name, o.Part, describeCondition(o.Cond, u), n, length[i])
+		}
+		tw.Flush()
+	}
+	fmt.Fprintf(&b, "\npanels   %d", sum.Panels)
+	if walls := sum.Unowned - sum.Interfaces; walls > 0 || sum.Interfaces > 0 {
+		fmt.Fprintf(&b, " (%d on insulated walls, %d on interfaces between regions)", walls, sum.Interfaces)
+	}
+	b.WriteString("\n")
+	if sum.Panels > 0 {
+		fmt.Fprintf(&b, "size     nominal %.4g m, smallest %.4g m, largest %.4g m, graded toward %d vertices\n",
+			sum.Size, sum.Smallest, sum.Largest, sum.Graded)
+	}
+
+	b.WriteString("\nwarnings")
+	if len(sc.Warnings) == 0 {
+		b.WriteString(" none\n")
+	} else {
+		b.WriteString("\n")
+		for _, w := range sc.Warnings {
+			fmt.Fprintf(&b, "  - %s\n", w)
+		}
+	}
+	b.WriteString("cautions (see CAUTIONS.md)\n")
+	for _, c := range cautionsFor(sc, m) {
+		fmt.Fprintf(&b, "  - %s: %s\n", c.Topic, c.Text)
+		for _, at := range c.Where {
+			fmt.Fprintf(&b, "      at x = %.6g m, y = %.6g m (%s)\n", float64(at.X), float64(at.Y), at.Boundary)
+		}
+	}
+	return b.String()
+}
+
+// describeCondition spells a boundary condition with its SI unit.
+func describeCondition(c geom.Condition, u quantityUnits) string {
+	switch c.Kind {
+	case geom.Potential:
+		return fmt.Sprintf("potential %g %s", c.Value, u.Potential)
+	case geom.Flux:
+		if c.Value == 0 {
+			return "insulated (flux 0)"
+		}
+		return fmt.Sprintf("flux %g %s", c.Value, u.InflowDensity)
+	case geom.Floating:
+		return fmt.Sprintf("floating, net inflow %g %s", c.NetInflow, u.Inflow)
+	}
+	return "none"
+}
+
+// describeMaterial spells a region's material with its SI unit.
+func describeMaterial(p geom.Physics, m geom.Material, u quantityUnits) string {
+	k := func(v float64) string {
+		if p == geom.Electrostatic {
+			return fmt.Sprintf("permittivity %.6g (relative; %.6g %s)", v/geom.Eps0, v, u.Conductivity)
+		}
+		if p == geom.Seepage {
+			return fmt.Sprintf("k %g %s", v, u.Conductivity)
+		}
+		return fmt.Sprintf("k %g", v)
+	}
+	if m.Isotropic() {
+		return k(m.Kx)
+	}
+	return "x: " + k(m.Kx) + ", y: " + k(m.Ky)
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return fmt.Sprintf("%d %s", n, many)
+}

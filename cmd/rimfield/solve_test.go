@@ -1,0 +1,177 @@
+package main
+
+import (
+	"encoding/csv"
+	"math"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+
+	"github.com/rimfield/rimfield/geom"
+)
+
+// repoPath returns a path relative to the repository root (tests run in
+// cmd/rimfield).
+func repoPath(parts ...string) string {
+	return filepath.Join(append([]string{"..", ".."}, parts...)...)
+}
+
+// badScenes returns the shared bad scene files.
+func badScenes(t *testing.T) []string {
+	t.Helper()
+	out, err := filepath.Glob(repoPath("testdata", "scenes", "bad", "*.geojson"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(out) == 0 {
+		t.Fatal("no bad scenes in testdata/scenes/bad")
+	}
+	return out
+}
+
+// A bad scene is one error line naming what is wrong, and leaves the output
+// directory exactly as it was (or absent).
+func TestSolveBadScene(t *testing.T) {
+	for _, path := range badScenes(t) {
+		t.Run(filepath.Base(path), func(t *testing.T) {
+			parent := t.TempDir()
+			fresh := filepath.Join(parent, "fresh")
+			_, _, err := runArgs(t, "solve", path, "-o", fresh)
+			wantOneLine(t, err, filepath.Base(path))
+			if _, err := os.Stat(fresh); !os.IsNotExist(err) {
+				t.Errorf("a bad scene created the output directory (stat: %v)", err)
+			}
+
+			old := filepath.Join(parent, "old")
+			before := map[string]string{"results.json": `{"files": ["results.json", "boundary.csv"]}`, "boundary.csv": "old"}
+			writeTree(t, old, before)
+			if _, _, err := runArgs(t, "solve", path, "-o", old); err == nil {
+				t.Fatal("no error")
+			}
+			got := readTree(t, parent)
+			want := map[string]string{}
+			for k, v := range before {
+				want["old/"+k] = v
+			}
+			sameTree(t, got, want)
+
+			_, _, err = runArgs(t, "check", path)
+			wantOneLine(t, err, filepath.Base(path))
+		})
+	}
+}
+
+// The command line passes the reader's message through whole, on one line:
+// feature, member, fault and fix.
+func TestBadSceneMessages(t *testing.T) {
+	cases := map[string][]string{
+		"key_typo.geojson":   {"key_typo.geojson", `feature 2 ("top")`, `"potental"`, `did you mean "potential"`},
+		"no_physics.geojson": {"no_physics.geojson", "problem.physics", "missing"},
+		"syntax.geojson":     {"syntax.geojson", "invalid JSON", "line 3"},
+	}
+	for file, fragments := range cases {
+		_, _, err := runArgs(t, "check", repoPath("testdata", "scenes", "bad", file))
+		wantOneLine(t, err, fragments...)
+	}
+}
+
+// End to end: the coaxial example against the closed form of a coaxial
+// line's capacitance per metre, C = 2 pi eps0 eps_r / ln(b/a) (any
+// electromagnetics text, e.g. Jackson, Classical Electrodynamics, 3rd ed.,
+// 1999, sec. 1.13). With 1 V on the pin its charge per metre, the inflow
+// through it, is C.
+func TestSolveCoaxialExample(t *testing.T) {
+	const (
+		a, b = 1.2e-3, 4e-3 // m: the pin and bore radii of examples/coaxial
+		epsr = 2.1
+	)
+	// Tolerance 1e-3 relative: what the default mesh is meant to deliver for
+	// engineering use; the 512-gons contribute about 1e-5 (their logarithmic
+	// capacity is 1.25e-5 below the circles', equally for both).
+	const tol = 1e-3
+	want := 2 * math.Pi * geom.Eps0 * epsr / math.Log(b/a)
+
+	dir := filepath.Join(t.TempDir(), "out")
+	stdout, _, err := runArgs(t, "solve", repoPath("examples", "coaxial", "scene.geojson"), "-o", dir, "--quiet")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if stdout != "" {
+		t.Errorf("--quiet printed %q", stdout)
+	}
+	r := readJSON(t, filepath.Join(dir, "results.json"))
+	byName := map[string]any{}
+	for i := range get(t, r, "boundaries").([]any) {
+		byName[str(t, r, "boundaries", i, "name")] = get(t, r, "boundaries", i)
+	}
+	pin, bore := byName["pin"], byName["bore"]
+	if pin == nil || bore == nil {
+		t.Fatalf("boundaries lack pin or bore: %v", get(t, r, "boundaries"))
+	}
+	if q := num(t, pin, "inflow"); math.Abs(q-want) > tol*want {
+		t.Errorf("charge on the pin %.7g C/m, want %.7g (relative error %.2g, tolerance %g)", q, want, math.Abs(q-want)/want, tol)
+	}
+	if q := num(t, bore, "inflow"); math.Abs(q+want) > tol*want {
+		t.Errorf("charge on the bore %.7g C/m, want %.7g", q, -want)
+	}
+	// The conditions come back: the potentials are the fixed values.
+	if u := num(t, pin, "potential"); math.Abs(u-1) > 1e-12 {
+		t.Errorf("pin potential %v, want 1", u)
+	}
+	if u := num(t, bore, "potential"); math.Abs(u) > 1e-12 {
+		t.Errorf("bore potential %v, want 0", u)
+	}
+	// Lengths: perimeters of the 512-gons, 2 n r sin(pi/n).
+	for name, rad := range map[string]float64{"pin": a, "bore": b} {
+		n := 512.0
+		if l, w := num(t, byName[name], "length"), 2*n*rad*math.Sin(math.Pi/n); math.Abs(l-w) > 1e-9*w {
+			t.Errorf("%s length %v m, want %v", name, l, w)
+		}
+	}
+	if str(t, r, "unit") != "mm" || str(t, r, "physics") != "electrostatic" {
+		t.Errorf("unit %v, physics %v", r["unit"], r["physics"])
+	}
+
+	f, err := os.Open(filepath.Join(dir, "boundary.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	rows, err := csv.NewReader(f).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(rows)-1 != int(num(t, r, "panels")) {
+		t.Errorf("boundary.csv has %d rows for %v panels", len(rows)-1, r["panels"])
+	}
+	// Midpoints are in metres, on the polygons: between the inscribed
+	// radius r cos(pi/n) and r of their circle.
+	for i, row := range rows[1:] {
+		rad := map[string]float64{"pin": a, "bore": b}[row[0]]
+		if rad == 0 {
+			t.Fatalf("row %d: unexpected boundary %q", i, row[0])
+		}
+		x, errx := strconv.ParseFloat(row[1], 64)
+		y, erry := strconv.ParseFloat(row[2], 64)
+		if errx != nil || erry != nil {
+			t.Fatalf("row %d: %v", i, row)
+		}
+		if d := math.Hypot(x, y); d < rad*math.Cos(math.Pi/512)*(1-1e-9) || d > rad*(1+1e-9) {
+			t.Errorf("row %d (%s): midpoint at %g m from the centre, want about %g", i, row[0], d, rad)
+		}
+	}
+}
+
+func TestCheckCoaxialExample(t *testing.T) {
+	out, _, err := runArgs(t, "check", repoPath("examples", "coaxial", "scene.geojson"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"electrostatic", "mm", "closed", "1 body, 1 region, 1 edge", "ptfe", "permittivity 2.1", "pin", "potential 1 V", "bore", "potential 0 V", "2d_idealisation"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("check output lacks %q:\n%s", want, out)
+		}
+	}
+}
