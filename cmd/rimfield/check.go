@@ -20,7 +20,7 @@ solved and nothing is written. The exit status is 0 for a valid scene.`
 
 func runCheck(args []string, stdout, stderr io.Writer) error {
 	cl := newCommandLine("check", "rimfield check SCENE [flags]", checkAbout)
-	panels := cl.fs.Int("panels", 0, "approximate total number of boundary panels, a count (0: chosen automatically), as solve --panels")
+	panels := cl.fs.Int("panels", 0, "approximate total number of boundary panels, a count `N` (0: chosen automatically), as for solve")
 	if helped, err := cl.parse(args, stdout); helped || err != nil {
 		return err
 	}

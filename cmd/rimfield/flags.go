@@ -51,9 +51,54 @@ func (c *commandLine) printHelp(w io.Writer) error {
 		b.WriteString("\n\n")
 	}
 	b.WriteString("Flags:\n")
-	b.WriteString(c.fs.FlagUsagesWrapped(100))
+	b.WriteString(flagUsages(c.fs))
 	_, err := io.WriteString(w, b.String())
 	return err
+}
+
+// flagUsages lists the flags of fs, one paragraph each: names with the
+// value's placeholder (the `quoted` word of the usage text), then the usage
+// and the default when it is not the zero value, wrapped to 80 columns.
+func flagUsages(fs *pflag.FlagSet) string {
+	type entry struct{ names, usage string }
+	var entries []entry
+	width := 0
+	fs.VisitAll(func(f *pflag.Flag) {
+		names := "    --" + f.Name
+		if f.Shorthand != "" {
+			names = "-" + f.Shorthand + ", --" + f.Name
+		}
+		varname, usage := pflag.UnquoteUsage(f)
+		if f.Value.Type() != "bool" && varname != "" {
+			names += " " + varname
+		}
+		switch f.DefValue {
+		case "", "0", "false", "[]":
+		default:
+			usage += fmt.Sprintf(" (default %s)", f.DefValue)
+		}
+		entries = append(entries, entry{names, usage})
+		width = max(width, len(names))
+	})
+	var b strings.Builder
+	indent := 2 + width + 3
+	for _, e := range entries {
+		fmt.Fprintf(&b, "  %-*s   ", width, e.names)
+		col := indent
+		for i, word := range strings.Fields(e.usage) {
+			if i > 0 && col+1+len(word) > 80 {
+				fmt.Fprintf(&b, "\n%*s", indent, "")
+				col = indent
+			} else if i > 0 {
+				b.WriteByte(' ')
+				col++
+			}
+			b.WriteString(word)
+			col += len(word)
+		}
+		b.WriteByte('\n')
+	}
+	return b.String()
 }
 
 // positional returns the positional arguments after checking that there

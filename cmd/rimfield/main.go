@@ -48,7 +48,7 @@ var commands map[string]command
 
 func init() {
 	commands = map[string]command{
-		"solve":   {"solve a scene and write results.json, boundary.csv and pictures into a directory", runSolve},
+		"solve":   {"solve a scene and write results.json and boundary.csv into a directory", runSolve},
 		"check":   {"validate a scene, build its mesh and print a summary without solving", runCheck},
 		"new":     {"write a starter scene for a common configuration", runNew},
 		"version": {"print the version of rimfield", runVersion},

@@ -69,11 +69,11 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 	cl := newCommandLine("solve", "rimfield solve SCENE -o DIR [flags]", solveAbout)
 	var o solveOptions
 	fs := cl.fs
-	fs.StringVarP(&o.out, "output", "o", "", "directory to write the results into (created if needed; required)")
-	fs.IntVar(&o.panels, "panels", 0, "approximate total number of boundary panels, a count (0: chosen automatically for engineering accuracy)")
-	fs.IntVar(&o.levels, "levels", 11, "number of evenly spaced equipotentials drawn between the lowest and highest boundary potential, a count")
+	fs.StringVarP(&o.out, "output", "o", "", "output directory `DIR` for the results (created if needed; required)")
+	fs.IntVar(&o.panels, "panels", 0, "approximate total number of boundary panels, a count `N` (0: chosen automatically for engineering accuracy)")
+	fs.IntVar(&o.levels, "levels", 11, "number `K` of evenly spaced equipotentials between the lowest and highest boundary potential, for contours and pictures")
 	fs.BoolVar(&o.noImages, "no-images", false, "do not draw the PNG pictures")
-	fs.StringVar(&o.solver, "solver", "auto", "linear solver: dense (direct, exact to rounding), fast (not available yet), or auto (dense)")
+	fs.StringVar(&o.solver, "solver", "auto", "linear `SOLVER`: dense (direct LU, exact to rounding), fast (not available yet), or auto (dense)")
 	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing on success (errors still go to stderr)")
 	if helped, err := cl.parse(args, stdout); helped || err != nil {
 		return err
