@@ -1,0 +1,110 @@
+package grid
+
+import (
+	"math"
+
+	"github.com/rimfield/rimfield/mesh"
+	"gonum.org/v1/gonum/spatial/r2"
+)
+
+// Window is an axis-aligned rectangle of the plane, in metres.
+type Window struct {
+	Min, Max r2.Vec
+}
+
+// Empty reports whether the window has no area (or is not finite).
+func (w Window) Empty() bool {
+	s := w.Size()
+	return !(s.X > 0 && s.Y > 0) || math.IsInf(s.X, 0) || math.IsInf(s.Y, 0)
+}
+
+// Size returns the width and height of the window.
+func (w Window) Size() r2.Vec { return r2.Sub(w.Max, w.Min) }
+
+// Diagonal returns the length of the window's diagonal.
+func (w Window) Diagonal() float64 { return r2.Norm(w.Size()) }
+
+// Contains reports whether p lies in the window (edges included).
+func (w Window) Contains(p r2.Vec) bool {
+	return p.X >= w.Min.X && p.X <= w.Max.X && p.Y >= w.Min.Y && p.Y <= w.Max.Y
+}
+
+// Window margins and proportions of Auto.
+const (
+	closedMargin = 0.04 // closed scenes: margin around the boundary, of the larger extent
+	openFactor   = 1.5  // open scenes: window over the bodies' extent
+	minAspect    = 0.3  // no side shorter than minAspect times the other
+)
+
+// Auto returns the default window for a mesh: the bounding box of the
+// boundary with a margin of 4% of its larger side in a closed scene; in an
+// open scene a window 1.5 times the bodies' extent about their centre (down
+// to the grounded plane, if any). Neither side is shorter than 0.3 times the
+// other, so that a thin plate still gets a picture with room around it.
+func Auto(m *mesh.Mesh) Window {
+	lo, hi := m.Bounds()
+	lay := m.Layout
+	open := lay != nil && lay.Open
+	var ground *float64
+	if open && lay.Ground != nil {
+		g := lay.Ground.Y
+		ground = &g
+		lo.Y = math.Min(lo.Y, g)
+	}
+	ext := r2.Sub(hi, lo)
+	big := math.Max(ext.X, ext.Y)
+	if !(big > 0) {
+		big = 1
+	}
+	ext.X = math.Max(ext.X, minAspect*big)
+	ext.Y = math.Max(ext.Y, minAspect*big)
+	c := r2.Scale(0.5, r2.Add(lo, hi))
+	var half r2.Vec
+	if open {
+		half = r2.Scale(0.5*openFactor, ext)
+	} else {
+		half = r2.Add(r2.Scale(0.5, ext), r2.Vec{X: closedMargin * big, Y: closedMargin * big})
+	}
+	w := Window{Min: r2.Sub(c, half), Max: r2.Add(c, half)}
+	if ground != nil {
+		// The domain lies above the plane: show a thin strip below it.
+		top := w.Max.Y
+		w.Min.Y = *ground - closedMargin*(top-*ground)
+	}
+	return w
+}
+
+// Grid-size budget of DefaultPoints.
+const (
+	// pointBudget is the number of panel evaluations (grid points times
+	// panels) DefaultPoints aims at: about 4 s at 150 ns per panel on two
+	// cores.
+	pointBudget = 5e7
+	minPoints   = 12000  // about 135 x 90
+	maxPoints   = 120000 // about 420 x 285
+)
+
+// DefaultPoints returns the number of grid points that keeps sampling a
+// solution with the given number of panels to a few seconds on two cores:
+// 5e7 panel evaluations, but at least 12 000 points and at most 120 000.
+func DefaultPoints(panels int) int {
+	if panels < 1 {
+		panels = 1
+	}
+	p := int(pointBudget / float64(panels))
+	return min(max(p, minPoints), maxPoints)
+}
+
+// Shape returns grid dimensions of about points samples in all whose
+// spacing is (nearly) the same along x and y; each is at least 8.
+func (w Window) Shape(points int) (nx, ny int) {
+	s := w.Size()
+	aspect := 1.0
+	if s.X > 0 && s.Y > 0 {
+		aspect = s.X / s.Y
+	}
+	nx = int(math.Round(math.Sqrt(float64(points) * aspect)))
+	nx = max(nx, 8)
+	ny = max(int(math.Round(float64(points)/float64(nx))), 8)
+	return nx, ny
+}
