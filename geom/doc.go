@@ -13,6 +13,37 @@
 // Outer rings run counter-clockwise and holes clockwise after reading, so a
 // polygon's material lies on the left of every ring.
 //
+// # Reading scene files
+//
+// Read decodes a scene file with orb/geojson and checks each feature on its
+// own: the geometry type for its part; closed rings (the first position
+// repeated at the end, within the coincidence tolerance) with at least
+// three distinct vertices, some area and no crossing or touching sides;
+// holes strictly inside their outer ring and apart from each other;
+// positions within 1e7 m of the origin after the unit conversion; at most
+// one condition on a body or edge; positive materials on regions; keys that
+// fit the part and the physics. It then checks the scene as a whole where no
+// arrangement is needed: a region in a closed scene, a fixed potential
+// somewhere in a closed scene, a stream in an open flow scene, every feature
+// strictly above a grounded plane. Checks between features that need the
+// planar arrangement (overlapping regions, edges off every boundary) are
+// Layout's.
+//
+// The coincidence tolerance is CoincidenceTol times the diagonal of the
+// bounding box of every position. Repeated consecutive vertices within it
+// are dropped; rings lose their closing vertex and are turned to run
+// counter-clockwise (outer) or clockwise (holes); edge lines keep their
+// vertices and direction as given.
+//
+// The first problem found is returned as an *Error naming the feature
+// (index and name), the member and the fix. Property keys Read does not know
+// give a warning in Scene.Warnings, since GIS tools add their own, unless
+// they are a near miss of a known key ("potental", "Potential", "net-inflow":
+// equal up to case and separators, or an edit distance of 1 for keys of 2 to
+// 4 letters, 2 from 5 letters on), which is an error suggesting the key.
+//
+// Write writes a Scene back as a scene file, every default spelled out.
+//
 // # Data flow
 //
 //	sc, err := geom.Read(r)   // bad input: *geom.Error naming feature and member

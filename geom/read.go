@@ -77,6 +77,8 @@ func Read(r io.Reader) (*Scene, error) {
 	if err != nil {
 		return nil, fmt.Errorf("geom: reading the scene: %w", err)
 	}
+	// Some editors start UTF-8 files with a byte order mark; JSON has none.
+	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
 	rd := &sceneReader{data: data, sc: &Scene{}}
 	if err := rd.read(); err != nil {
 		return nil, err
@@ -693,6 +695,11 @@ func readNumberMsg(v any) string {
 	s, isStr := v.(string)
 	if !isStr {
 		return fmt.Sprintf("must be a number, got %s", readDescribe(v))
+	}
+	if c := strings.Replace(strings.TrimSpace(s), ",", ".", 1); c != strings.TrimSpace(s) {
+		if x, err := strconv.ParseFloat(c, 64); err == nil {
+			return fmt.Sprintf("must be a number, got %q; write it as %s, with a decimal point and without quotes", readClip(s), readFmt(x))
+		}
 	}
 	if m := readNumberPrefix.FindString(s); m != "" {
 		x, err := strconv.ParseFloat(strings.TrimSpace(strings.TrimPrefix(strings.TrimSpace(m), "+")), 64)
@@ -1329,12 +1336,25 @@ func (rd *sceneReader) shape(rf *readFeature) error {
 				return ef("%s is thinner than the coincidence tolerance (%s) and encloses no area; remove it or give it some thickness", path(ri), rd.unitFmt(tol))
 			}
 		}
+		boxes := make([][2]r2.Vec, len(poly))
+		for ri, ring := range poly {
+			lo, hi := ring[0], ring[0]
+			for _, v := range ring {
+				lo = r2.Vec{X: math.Min(lo.X, v.X), Y: math.Min(lo.Y, v.Y)}
+				hi = r2.Vec{X: math.Max(hi.X, v.X), Y: math.Max(hi.Y, v.Y)}
+			}
+			boxes[ri] = [2]r2.Vec{lo, hi}
+		}
+		inBox := func(p r2.Vec, rj int) bool {
+			b := boxes[rj]
+			return p.X >= b[0].X && p.X <= b[1].X && p.Y >= b[0].Y && p.Y <= b[1].Y
+		}
 		for ri := 1; ri < len(poly); ri++ {
 			if !readInside(poly[ri][0], poly[0]) {
 				return ef("%s (a hole) lies outside its outer ring %s; in GeoJSON the first ring of a polygon is its outline and the others are holes inside it: put a separate outline in a MultiPolygon, or in a feature of its own", path(ri), path(0)[5:])
 			}
 			for rj := 1; rj < len(poly); rj++ {
-				if rj != ri && readInside(poly[ri][0], poly[rj]) {
+				if rj != ri && inBox(poly[ri][0], rj) && readInside(poly[ri][0], poly[rj]) {
 					return ef("%s (a hole) lies inside %s, another hole of the same polygon; remove the inner hole, or give it a feature of its own", path(ri), path(rj)[5:])
 				}
 			}

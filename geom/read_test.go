@@ -494,6 +494,7 @@ func TestReadNumberMessages(t *testing.T) {
 		{"2.5", `got "2.5"; write it as 2.5, without quotes`},
 		{"-1e-3 C/m", "write it as -0.001 "},
 		{"high", `got "high"; write a plain number`},
+		{"1,5", "write it as 1.5, with a decimal point"},
 		{true, "got true"},
 		{nil, "got null"},
 		{[]any{1.0}, "got an array"},
@@ -775,9 +776,39 @@ func readTestSameVecs[S ~[]r2.Vec](x, y S) bool {
 	return true
 }
 
+func TestReadByteOrderMark(t *testing.T) {
+	src := "\xef\xbb\xbf" + readTestScene(`{"physics": "laplace"}`,
+		readTestPolygon(`{"part": "body", "potential": 1}`, `[[0, 0], [1, 0], [0, 1], [0, 0]]`))
+	if _, err := Read(strings.NewReader(src)); err != nil {
+		t.Errorf("scene with a UTF-8 byte order mark: %v", err)
+	}
+}
+
 func TestReadFileMissing(t *testing.T) {
 	_, err := ReadFile(filepath.Join(t.TempDir(), "none.geojson"))
 	if err == nil || !strings.HasPrefix(err.Error(), "geom: ") || !errors.Is(err, os.ErrNotExist) {
 		t.Errorf("error %v, want a geom: error wrapping os.ErrNotExist", err)
+	}
+}
+
+var readBenchSink *Scene
+
+// BenchmarkRead reads a conductor with a hole, both rings regular n-gons;
+// the time per doubling of n shows the cost of the ring checks.
+func BenchmarkRead(b *testing.B) {
+	for _, n := range []int{500, 2000, 8000} {
+		src := []byte(readTestScene(`{"physics": "electrostatic"}`,
+			readTestPolygon(`{"part": "body", "potential": 1}`, readTestCircle(n, 0, 0, 2, true), readTestCircle(n, 0.1, 0, 1, false))))
+		b.Run(fmt.Sprintf("vertices=%d", 2*n), func(b *testing.B) {
+			b.ReportAllocs()
+			b.SetBytes(int64(len(src)))
+			for b.Loop() {
+				sc, err := Read(bytes.NewReader(src))
+				if err != nil {
+					b.Fatal(err)
+				}
+				readBenchSink = sc
+			}
+		})
 	}
 }
