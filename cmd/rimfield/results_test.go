@@ -65,8 +65,13 @@ func fakeJob() *job {
 }
 
 // solveFake writes the outputs of a job into a new directory and returns it.
+// A hand-built solution cannot be evaluated away from the boundary, so the
+// artifacts (contours, pictures) are left out.
 func solveFake(t *testing.T, j *job) string {
 	t.Helper()
+	saved := artifacts
+	artifacts = nil
+	defer func() { artifacts = saved }()
 	_, files, err := resultFiles(j, true)
 	if err != nil {
 		t.Fatal(err)

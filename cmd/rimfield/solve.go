@@ -8,6 +8,7 @@ import (
 	"text/tabwriter"
 
 	"github.com/rimfield/rimfield/bem"
+	"github.com/rimfield/rimfield/bem/grid"
 	"github.com/rimfield/rimfield/geom"
 	"github.com/rimfield/rimfield/mesh"
 )
@@ -28,6 +29,10 @@ type job struct {
 	solverKind string // "dense"
 	unknowns   int
 	levels     int // number of equipotentials for contours and pictures
+	// warnings collects what the writers of outputs noticed; they go into
+	// results.json.
+	warnings []string
+	grid     *grid.Grid // the solution on the default grid, once sampled
 }
 
 // artifact is an optional group of output files (contours, pictures),
@@ -49,6 +54,9 @@ Solves the scene and writes into DIR (created if needed):
   boundary.csv   one row per panel: boundary name, midpoint x_m and y_m,
                  arc length s_m, panel length_m, potential and inflow density
                  (units in the column names)
+  contours.geojson  --levels equipotential lines (LineStrings with "level"
+                 and "unit" properties) in the scene's coordinate unit, to
+                 overlay the scene
 
 Files an earlier run wrote into DIR are replaced all at once when every new
 file is complete; other files in DIR are left alone. A scene with an error
@@ -164,6 +172,7 @@ func resultFiles(j *job, images bool) (*results, []outputFile, error) {
 		}
 		files = append(files, more...)
 	}
+	res.Warnings = append(res.Warnings, j.warnings...)
 	res.Files = []string{resultsName}
 	for _, f := range files {
 		res.Files = append(res.Files, f.name)

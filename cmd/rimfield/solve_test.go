@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/csv"
+	"encoding/json"
 	"math"
 	"os"
 	"path/filepath"
@@ -94,7 +95,7 @@ func TestSolveCoaxialExample(t *testing.T) {
 	want := 2 * math.Pi * geom.Eps0 * epsr / math.Log(b/a)
 
 	dir := filepath.Join(t.TempDir(), "out")
-	stdout, _, err := runArgs(t, "solve", repoPath("examples", "coaxial", "scene.geojson"), "-o", dir, "--quiet")
+	stdout, _, err := runArgs(t, "solve", repoPath("examples", "coaxial", "scene.geojson"), "-o", dir, "--quiet", "--levels", "7")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -143,6 +144,7 @@ func TestSolveCoaxialExample(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	checkCoaxialContours(t, dir, a, b, 7)
 	if len(rows)-1 != int(num(t, r, "panels")) {
 		t.Errorf("boundary.csv has %d rows for %v panels", len(rows)-1, r["panels"])
 	}
@@ -160,6 +162,74 @@ func TestSolveCoaxialExample(t *testing.T) {
 		}
 		if d := math.Hypot(x, y); d < rad*math.Cos(math.Pi/512)*(1-1e-9) || d > rad*(1+1e-9) {
 			t.Errorf("row %d (%s): midpoint at %g m from the centre, want about %g", i, row[0], d, rad)
+		}
+	}
+}
+
+// contoursFile is contours.geojson as read back.
+type contoursFile struct {
+	Type     string `json:"type"`
+	Features []struct {
+		Geometry struct {
+			Type        string       `json:"type"`
+			Coordinates [][2]float64 `json:"coordinates"`
+		} `json:"geometry"`
+		Properties struct {
+			Level *float64 `json:"level"`
+			Unit  string   `json:"unit"`
+		} `json:"properties"`
+	} `json:"features"`
+}
+
+// checkCoaxialContours checks contours.geojson of the coaxial example: the
+// equipotential u of a coaxial line is the circle r = b (a/b)^u, from
+// u = ln(b/r) / ln(b/a) (same source as the capacitance), in the scene's
+// unit (mm).
+func checkCoaxialContours(t *testing.T, dir string, a, b float64, levels int) {
+	t.Helper()
+	data, err := os.ReadFile(filepath.Join(dir, "contours.geojson"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var c contoursFile
+	if err := json.Unmarshal(data, &c); err != nil {
+		t.Fatal(err)
+	}
+	// Marching squares interpolates u linearly along grid edges of length h;
+	// for u = c ln r that misplaces a crossing by at most h^2/(8 r) (Taylor
+	// remainder of the linear interpolant). The default grid has h = 0.04
+	// mm here, 1.1e-4 of the innermost line's radius (1.3 mm); 5e-4 leaves
+	// room for a coarser default grid.
+	const tol = 5e-4
+	seen := map[float64]bool{}
+	for i, f := range c.Features {
+		if f.Geometry.Type != "LineString" || f.Properties.Level == nil || f.Properties.Unit != "V" {
+			t.Fatalf("feature %d: %s, level %v, unit %q", i, f.Geometry.Type, f.Properties.Level, f.Properties.Unit)
+		}
+		u := *f.Properties.Level
+		seen[u] = true
+		pts := f.Geometry.Coordinates
+		if len(pts) < 4 || pts[0] != pts[len(pts)-1] {
+			t.Errorf("level %g: an equipotential of a coaxial line is a closed ring, got %d points", u, len(pts))
+		}
+		want := b * math.Pow(a/b, u) * 1e3 // mm
+		for _, p := range pts {
+			if r := math.Hypot(p[0], p[1]); math.Abs(r-want) > tol*want {
+				t.Fatalf("level %g: point at radius %g mm, want %g mm", u, r, want)
+			}
+		}
+	}
+	if len(seen) != levels {
+		t.Errorf("%d distinct levels, want %d", len(seen), levels)
+	}
+	for k := 1; k <= levels; k++ {
+		u := float64(k) / float64(levels+1)
+		found := false
+		for v := range seen {
+			found = found || math.Abs(v-u) < 1e-12
+		}
+		if !found {
+			t.Errorf("level %g missing (levels evenly spaced between 0 and 1 V)", u)
 		}
 	}
 }
