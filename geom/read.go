@@ -41,6 +41,17 @@ var readUnits = map[string]float64{
 	"ft": 0.3048,
 }
 
+// readUnitAlias maps spellings of the units to the name a scene file uses.
+var readUnitAlias = map[string]string{
+	"m": "m", "meter": "m", "metre": "m", "meters": "m", "metres": "m",
+	"cm": "cm", "centimeter": "cm", "centimetre": "cm", "centimeters": "cm", "centimetres": "cm",
+	"mm": "mm", "millimeter": "mm", "millimetre": "mm", "millimeters": "mm", "millimetres": "mm",
+	"um": "um", "micron": "um", "microns": "um", "micrometer": "um", "micrometre": "um", "micrometers": "um", "micrometres": "um",
+	"km": "km", "kilometer": "km", "kilometre": "km", "kilometers": "km", "kilometres": "km",
+	"in": "in", "inch": "in", "inches": "in", `"`: "in",
+	"ft": "ft", "foot": "ft", "feet": "ft", "'": "ft",
+}
+
 // readUnitList is the allowed units in the order error messages list them.
 const readUnitList = `"m", "cm", "mm", "um", "km", "in" or "ft"`
 
@@ -166,7 +177,13 @@ func (rd *sceneReader) read() error {
 	}
 	fc, err := geojson.UnmarshalFeatureCollection(rd.data)
 	if err != nil {
-		return rd.errf(-1, "", "", "the file is not valid GeoJSON: %v; fix the structure to follow RFC 7946", err)
+		// Find the feature at fault, if one is.
+		for i, raw := range raws {
+			if _, ferr := geojson.UnmarshalFeature(raw); ferr != nil {
+				return rd.errf(i, "", "", "cannot be read as a GeoJSON Feature (%v); fix it to follow RFC 7946", ferr)
+			}
+		}
+		return rd.errf(-1, "", "", "the file cannot be read as a GeoJSON FeatureCollection (%v); fix it to follow RFC 7946", err)
 	}
 	if err := rd.problem(fc.ExtraMembers["problem"]); err != nil {
 		return err
@@ -243,6 +260,16 @@ func (rd *sceneReader) top() ([]json.RawMessage, error) {
 		}
 		if s, ok := readNearMiss(k, []string{"problem", "features"}); ok {
 			return nil, rd.errf(-1, "", k, "unknown member; did you mean %q?", s)
+		}
+	}
+	if raw, ok := top["bbox"]; ok {
+		var v any
+		dec := json.NewDecoder(bytes.NewReader(raw))
+		dec.UseNumber()
+		if dec.Decode(&v) == nil {
+			if msg := readCheckBBox(v); msg != "" {
+				return nil, rd.errf(-1, "", "bbox", "%s", msg)
+			}
 		}
 	}
 	rawFeatures, ok := top["features"]
@@ -375,6 +402,9 @@ func (rd *sceneReader) precheck(i int, raw json.RawMessage) error {
 	default:
 		return rd.errf(i, name, "type", `must be "Feature", got %s`, readDescribe(t))
 	}
+	if msg := readCheckBBox(obj["bbox"]); msg != "" {
+		return rd.errf(i, name, "bbox", "%s", msg)
+	}
 	if p, ok := obj["properties"]; ok && p != nil && props == nil {
 		return rd.errf(i, name, "properties", `must be an object such as {"part": "body", "potential": 1}, got %s`, readDescribe(p))
 	}
@@ -408,6 +438,26 @@ func (rd *sceneReader) precheck(i int, raw json.RawMessage) error {
 		return rd.errf(i, name, "coordinates", "%s", msg)
 	}
 	return nil
+}
+
+// readCheckBBox checks an optional GeoJSON bbox member (decoded with
+// UseNumber): Read ignores it, but it must still be an array of numbers.
+func readCheckBBox(v any) string {
+	if v == nil {
+		return ""
+	}
+	arr, ok := v.([]any)
+	if ok {
+		for _, c := range arr {
+			if _, isNum := c.(json.Number); !isNum {
+				ok = false
+			}
+		}
+	}
+	if !ok {
+		return fmt.Sprintf("must be an array of numbers [min x, min y, max x, max y], got %s; fix it or remove it (rimfield does not use it)", readDescribe(v))
+	}
+	return ""
 }
 
 // readCheckPositions checks that v nests arrays depth deep around positions
@@ -535,7 +585,11 @@ func (rd *sceneReader) problem(v any) error {
 				s = "um"
 			}
 			if _, known := readUnits[s]; !known {
-				return pe(k, "unknown unit %q; use one of %s", readClip(s), readUnitList)
+				hint := ""
+				if g, ok := readUnitAlias[strings.ToLower(strings.TrimSpace(s))]; ok {
+					hint = fmt.Sprintf(" (did you mean %q?)", g)
+				}
+				return pe(k, "unknown unit %q%s; use one of %s", readClip(s), hint, readUnitList)
 			}
 			p.Unit = s
 		case "open":
@@ -1302,7 +1356,10 @@ func (rd *sceneReader) shape(rf *readFeature) error {
 			if len(raw) == 0 {
 				return ef("%s is empty; remove it or give its positions", what)
 			}
-			if len(raw) < 2 || r2.Norm(r2.Sub(raw[0], raw[len(raw)-1])) > tol {
+			if len(raw) == 1 {
+				return ef("%s has a single position; a ring needs at least 3 distinct vertices and the closing repeat of the first", what)
+			}
+			if r2.Norm(r2.Sub(raw[0], raw[len(raw)-1])) > tol {
 				last := raw[len(raw)-1]
 				return ef("%s is not closed: it starts at %s and ends at %s; GeoJSON repeats the first position at the end of a ring: append %s",
 					what, rd.pointFmt(raw[0]), rd.pointFmt(last), readBracket(rd, raw[0]))
@@ -1312,7 +1369,7 @@ func (rd *sceneReader) shape(rf *readFeature) error {
 				ring = ring[:len(ring)-1]
 			}
 			if len(ring) < 3 {
-				return ef("%s has %d distinct vertices; a ring needs at least 3 (plus the closing repeat of the first)", what, len(ring))
+				return ef("%s has only %s; a ring needs at least 3 (plus the closing repeat of the first)", what, readVertices(len(ring)))
 			}
 			if readCollinear(ring, tol) {
 				return ef("%s encloses no area (its vertices lie on one line); remove it or give it some thickness", what)
@@ -1380,7 +1437,7 @@ func (rd *sceneReader) shape(rf *readFeature) error {
 		if closed {
 			line = readDedupe(raw[:len(raw)-1], tol)
 			if len(line) < 3 {
-				return ef("%s is closed but has %d distinct vertices; a closed line needs at least 3", what, len(line))
+				return ef("%s is closed but has only %s; a closed line needs at least 3", what, readVertices(len(line)))
 			}
 			line = append(line, line[0])
 		} else if len(line) < 2 {
@@ -1442,6 +1499,14 @@ func readCollinear(ring []r2.Vec, tol float64) bool {
 		}
 	}
 	return true
+}
+
+// readVertices counts distinct vertices in words.
+func readVertices(n int) string {
+	if n == 1 {
+		return "1 distinct vertex"
+	}
+	return fmt.Sprintf("%d distinct vertices", n)
 }
 
 // readArticle names a part with its indefinite article.
