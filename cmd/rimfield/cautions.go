@@ -65,14 +65,18 @@ func singularCorners(m *mesh.Mesh) (caution, bool) {
 	if len(m.Singular) == 0 {
 		return caution{}, false
 	}
-	// The boundary at each vertex: the owner of a panel ending there.
-	names := map[r2.Vec]string{}
+	// The boundary at each vertex: the first body or edge ending there, else
+	// the first wall or interface.
+	type naming struct {
+		name  string
+		owned bool
+	}
+	names := map[r2.Vec]naming{}
 	for _, p := range m.Panels {
-		if name := ownerName(m.Layout, p.Owner); name != "" {
-			for _, v := range [2]r2.Vec{p.A, p.B} {
-				if _, ok := names[v]; !ok {
-					names[v] = name
-				}
+		n := naming{panelBoundaryName(m.Layout, p), p.Owner >= 0 && !p.Interface()}
+		for _, v := range [2]r2.Vec{p.A, p.B} {
+			if cur, ok := names[v]; !ok || (n.owned && !cur.owned) {
+				names[v] = n
 			}
 		}
 	}
@@ -81,21 +85,13 @@ func singularCorners(m *mesh.Mesh) (caution, bool) {
 		if len(where) == maxWhere {
 			break
 		}
-		where = append(where, location{X: number(v.X), Y: number(v.Y), Boundary: names[v]})
+		where = append(where, location{X: number(v.X), Y: number(v.Y), Boundary: names[v].name})
 	}
 	text := fmt.Sprintf("%d corner(s), tip(s) or change(s) of condition where the field is infinite in theory: values on the panels next to them depend on the mesh; round sharp corners (or read values a little away from them) and re-run with more panels to see how much they move", len(m.Singular))
 	if len(m.Singular) > len(where) {
 		text += fmt.Sprintf(" (the first %d are listed)", len(where))
 	}
 	return caution{Topic: "singular_corners", Text: text, Where: where}, true
-}
-
-// ownerName returns the name of an owner index, or "" for -1.
-func ownerName(lay *geom.Layout, i int) string {
-	if i >= 0 && i < len(lay.Owners) {
-		return lay.Owners[i].Name
-	}
-	return ""
 }
 
 // truncatedDomain reports insulated walls of a closed scene: the outer
