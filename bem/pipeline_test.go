@@ -113,23 +113,28 @@ func TestDefaultTwoCylinders(t *testing.T) {
 	}
 }
 
-// A strip drawn in centimetres: 300 cm x 100 cm, potentials 1 and 0 on the
-// short sides, k = 2: inflow 2 * 1 / 3 per metre whatever the drawing unit
-// (the scale is applied on reading; here the scene is built in metres from
-// cm values times 0.01, as the reader does).
-func TestDefaultStrip(t *testing.T) {
-	cm := 0.01
-	sc := &geom.Scene{
-		Problem: geom.Problem{Physics: geom.Laplace, Scale: cm},
-		Regions: []geom.Region{{Name: "strip", Polygons: []geom.Polygon{{ring(rect(0, 0, 300*cm, 100*cm))}}, Material: geom.Material{Kx: 2, Ky: 2}}},
-		Edges: []geom.Edge{
-			{Name: "left", Cond: pot(1), Lines: []geom.Line{{{X: 0, Y: 100 * cm}, {X: 0, Y: 0}}}},
-			{Name: "right", Feature: 1, Cond: pot(0), Lines: []geom.Line{{{X: 300 * cm, Y: 0}, {X: 300 * cm, Y: 100 * cm}}}},
-		},
+// A strip drawn in centimetres (testdata/solve/strip_cm.geojson): 300 cm x
+// 100 cm, potentials 1 and 0 on the short sides, k = 2. In SI the inflow per
+// metre is k * 1 V * 1 m / 3 m = 2/3 (Darcy's/Ohm's law, common practice);
+// read in the wrong unit it would still be 2/3 (the ratio is scale-free), so
+// also check the converted length of the left edge, 1 m, and the potential
+// gradient -1/3 per metre at the centre.
+func TestDefaultStripInCentimetres(t *testing.T) {
+	sc, err := geom.ReadFile("../testdata/solve/strip_cm.geojson")
+	if err != nil {
+		t.Fatal(err)
 	}
 	sol, lay := solveScene(t, sc, mesh.Options{})
-	if q := sol.Owners()[ownerIndex(t, lay, "left")].Inflow; relErr(q, 2.0/3) > 1e-3 {
-		t.Errorf("inflow %v, want %v", q, 2.0/3)
+	left := sol.Owners()[ownerIndex(t, lay, "left")]
+	if relErr(left.Inflow, 2.0/3) > 1e-3 {
+		t.Errorf("inflow %v, want %v", left.Inflow, 2.0/3)
+	}
+	if math.Abs(left.Length-1) > 1e-12 {
+		t.Errorf("left edge length %v m, want 1", left.Length)
+	}
+	pt := sol.Eval(r2.Vec{X: 1.5, Y: 0.5})
+	if math.Abs(pt.U-0.5) > 1e-4 || math.Abs(pt.Grad.X+1.0/3) > 1e-4 {
+		t.Errorf("centre: u = %v, grad = %v; want 0.5, (-1/3, 0)", pt.U, pt.Grad)
 	}
 }
 

@@ -342,3 +342,52 @@ func TestSquareCoaxConvergence(t *testing.T) {
 		t.Errorf("error %.3g, want < 1e-4", errs[len(errs)-1])
 	}
 }
+
+// Manufactured harmonic function u = x^2 - y^2 (shared/REFERENCES.md) on an
+// irregular convex pentagon with potential data on two sides and flux data
+// on three: the potential at interior points and the flux on the potential
+// sides must match the exact ones. Tolerance 5e-4 absolute at 64 graded
+// panels per side (observed ~1e-5 inside).
+func TestManufacturedSaddlePentagon(t *testing.T) {
+	u := func(p r2.Vec) float64 { return p.X*p.X - p.Y*p.Y }
+	grad := func(p r2.Vec) r2.Vec { return r2.Vec{X: 2 * p.X, Y: -2 * p.Y} }
+	poly := []r2.Vec{{X: 0, Y: 0}, {X: 2, Y: -0.3}, {X: 2.4, Y: 1.2}, {X: 1.1, Y: 2.1}, {X: -0.4, Y: 1.3}}
+	bl := newBuilder(false)
+	reg := bl.region("pentagon", 1, 1, false)
+	for s := range poly {
+		pts := split(poly[s], poly[(s+1)%len(poly)], 64, true)
+		for i := 0; i+1 < len(pts); i++ {
+			a, b := pts[i], pts[i+1]
+			m := r2.Scale(0.5, r2.Add(a, b))
+			c := pot(u(m))
+			if s%2 == 1 || s == 4 {
+				n := r2.Unit(r2.Vec{X: b.Y - a.Y, Y: a.X - b.X})
+				c = flux(r2.Dot(grad(m), n))
+			}
+			o := bl.owner("", c)
+			bl.segment(a, b, 1, false, reg, geom.Outside, o, c)
+		}
+	}
+	msh := bl.mesh()
+	sol, err := Solve(msh, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, p := range []r2.Vec{{X: 1, Y: 0.8}, {X: 0.3, Y: 0.4}, {X: 1.9, Y: 1}} {
+		pt := sol.Eval(p)
+		if math.Abs(pt.U-u(p)) > 5e-4 || r2.Norm(r2.Sub(pt.Grad, grad(p))) > 5e-3 {
+			t.Errorf("at %v: u %v grad %v, want %v %v", p, pt.U, pt.Grad, u(p), grad(p))
+		}
+	}
+	// Integrated flux on the potential sides (0 and 2) against the exact.
+	var got, want float64
+	for j, p := range msh.Panels {
+		if p.Cond.Kind == geom.Potential {
+			got += sol.F[j] * p.Length()
+			want += r2.Dot(grad(p.Mid()), p.Normal()) * p.Length()
+		}
+	}
+	if math.Abs(got-want) > 1e-3*math.Abs(want) {
+		t.Errorf("inflow through the potential sides %v, want %v", got, want)
+	}
+}
