@@ -53,19 +53,21 @@ func (r *region) coefficients(s *side, x r2.Vec, self bool) (cu, cf float64) {
 	return dl, sl * s.scale
 }
 
-// gradCoefficients returns the gradients (original coordinates) of the two
-// coefficients of coefficients.
-func (r *region) gradCoefficients(s *side, x r2.Vec) (gu, gf r2.Vec) {
+// fieldCoefficients returns the two coefficients of coefficients and their
+// gradients (original coordinates) at a point x off the boundary.
+func (r *region) fieldCoefficients(s *side, x r2.Vec) (cu, cf float64, gu, gf r2.Vec) {
 	X := r.transform(x)
-	gsl, gdl := s.frame.gradients(X)
+	sl, dl, gsl, gdl := s.frame.all(X)
 	if r.image {
-		igsl, igdl := s.image.gradients(X)
+		isl, idl, igsl, igdl := s.image.all(X)
+		sl -= isl
+		dl -= idl
 		gsl = r2.Sub(gsl, igsl)
 		gdl = r2.Sub(gdl, igdl)
 	}
 	// grad_x = T' grad_X, T' diagonal.
 	back := func(v r2.Vec) r2.Vec { return r2.Vec{X: r.ax * v.X, Y: v.Y / r.ax} }
-	return back(gdl), r2.Scale(s.scale, back(gsl))
+	return dl, sl * s.scale, back(gdl), r2.Scale(s.scale, back(gsl))
 }
 
 // slot tells where a panel's potential or inflow lives: an unknown column,

@@ -86,8 +86,7 @@ func (s *Solution) evalIn(reg int, p r2.Vec) (float64, r2.Vec) {
 	var g r2.Vec
 	for k := range r.sides {
 		sd := &r.sides[k]
-		cu, cf := r.coefficients(sd, p, false)
-		gu, gf := r.gradCoefficients(sd, p)
+		cu, cf, gu, gf := r.fieldCoefficients(sd, p)
 		uj := s.U[sd.panel]
 		fj := sd.sign * s.F[sd.panel]
 		u += cf*fj - cu*uj

@@ -88,9 +88,10 @@ func (p *panelFrame) integrals(x r2.Vec, self bool) (sl, dl float64) {
 	return -inv2Pi * lnInt, -inv2Pi * theta
 }
 
-// gradients returns the gradients with respect to x of the single- and
-// double-layer integrals. x must not be an endpoint of the panel.
-func (p *panelFrame) gradients(x r2.Vec) (gsl, gdl r2.Vec) {
+// all returns the single- and double-layer integrals and their gradients at
+// x in one pass (one arctangent, two logarithms). x must not lie on the
+// panel's closed segment.
+func (p *panelFrame) all(x r2.Vec) (sl, dl float64, gsl, gdl r2.Vec) {
 	xa := r2.Sub(x, p.a)
 	xi0 := r2.Dot(xa, p.t)
 	eta0 := r2.Dot(xa, p.n)
@@ -100,9 +101,12 @@ func (p *panelFrame) gradients(x r2.Vec) (gsl, gdl r2.Vec) {
 	rb2 := beta*beta + eta0*eta0
 	theta := subtended(x, p.a, p.b)
 	lr := logRatio(ra2, p.l*(beta+alpha))
+	lnInt := beta*lr + p.l*0.5*math.Log(ra2) - p.l - eta0*theta
+	sl = -inv2Pi * lnInt
+	dl = -inv2Pi * theta
 	gsl = r2.Scale(inv2Pi, r2.Add(r2.Scale(lr, p.t), r2.Scale(theta, p.n)))
 	ct := eta0 * (1/ra2 - 1/rb2)
 	cn := alpha/ra2 - beta/rb2
 	gdl = r2.Scale(inv2Pi, r2.Add(r2.Scale(ct, p.t), r2.Scale(cn, p.n)))
-	return gsl, gdl
+	return sl, dl, gsl, gdl
 }
