@@ -216,4 +216,3 @@ func (p *panelFrame) gradients(x r2.Vec) (gsl, gdl r2.Vec) {
 	gdl = r2.Scale(inv2Pi, r2.Add(r2.Scale(ct, p.t), r2.Scale(cn, p.n)))
 	return gsl, gdl
 }
-
