@@ -1,0 +1,683 @@
+package draw
+
+import (
+	"fmt"
+	"image"
+	"image/color"
+	"io"
+	"math"
+	"sort"
+
+	"github.com/rimfield/rimfield/bem/grid"
+	"github.com/rimfield/rimfield/geom"
+	"gonum.org/v1/gonum/spatial/r2"
+)
+
+// Map is a picture of a scalar field over the scene: the field in colour
+// with a colour bar, equipotentials and flux lines over it, the bodies
+// filled and named, the edges marked, a scale bar, axes in the scene's unit
+// and a title.
+type Map struct {
+	// Grid gives the sample positions and Values one value per sample
+	// (Grid.U for the potential, Grid.Magnitude() for the field strength);
+	// NaN samples are not coloured.
+	Grid   *grid.Grid
+	Values []float64
+	// Lo and Hi are the values at the ends of the colour map. When Hi <= Lo
+	// they come from Values: the smallest value, and the Clip quantile of
+	// the values (the largest when Clip is 0 or 1). Values beyond the ends
+	// take the end colours; the colour bar then shows an arrow.
+	Lo, Hi float64
+	Clip   float64
+	// FromZero starts the automatic colour range at 0 (for magnitudes).
+	FromZero bool
+	// Label names the quantity and its unit under the colour bar:
+	// "potential (V)".
+	Label string
+	// Title is the first line, the headline result; Subtitle a second,
+	// smaller line.
+	Title, Subtitle string
+	// Contours and Lines (flux lines) are drawn over the field, in metres.
+	Contours []geom.LevelLine
+	Lines    [][]r2.Vec
+	// Marker, when not nil, circles a point and names it.
+	Marker *Marker
+	// Scene gives the bodies, regions and edges to draw, the coordinate
+	// unit for the axes and the scale bar (Problem.Unit, Problem.Scale) and
+	// whether the domain is open. Nil draws the field alone, in metres.
+	Scene *geom.Scene
+	// Colors is the colour map; nil means Sequential.
+	Colors Colormap
+}
+
+// Marker is a point to show on a map.
+type Marker struct {
+	At   r2.Vec // metres
+	Text string
+}
+
+// PNG draws the map as a PNG image of width x height pixels.
+func (m *Map) PNG(w io.Writer, width, height int) error {
+	if err := m.check(width, height); err != nil {
+		return err
+	}
+	c, err := newRaster(width, height)
+	if err != nil {
+		return err
+	}
+	m.draw(c, float64(width), float64(height))
+	return c.writePNG(w)
+}
+
+// SVG draws the map as an SVG document of width x height points; the field
+// itself is embedded as an image.
+func (m *Map) SVG(w io.Writer, width, height int) error {
+	if err := m.check(width, height); err != nil {
+		return err
+	}
+	c := newVector(width, height)
+	m.draw(c, float64(width), float64(height))
+	return c.writeSVG(w)
+}
+
+// Smallest picture Map draws.
+const minSide = 200
+
+func (m *Map) check(width, height int) error {
+	if width < minSide || height < minSide {
+		return fmt.Errorf("draw: picture size %d x %d is too small; give at least %d x %d", width, height, minSide, minSide)
+	}
+	if m.Grid == nil || len(m.Values) != m.Grid.NX*m.Grid.NY {
+		return fmt.Errorf("draw: the map needs a grid and one value per sample")
+	}
+	return nil
+}
+
+// Colours of the picture's furniture.
+var (
+	black     = color.RGBA{0, 0, 0, 255}
+	white     = color.RGBA{255, 255, 255, 255}
+	ink       = color.RGBA{40, 40, 40, 255}
+	greyText  = color.RGBA{90, 90, 90, 255}
+	bodyFill  = color.RGBA{168, 168, 168, 255}
+	bodyEdge  = color.RGBA{55, 55, 55, 255}
+	groundCol = color.RGBA{215, 215, 215, 255}
+	contour   = color.NRGBA{20, 20, 20, 160}
+	fluxLine  = color.NRGBA{255, 255, 255, 225}
+	edgeCol   = color.RGBA{0, 0, 0, 255}
+	halo      = color.NRGBA{255, 255, 255, 210}
+	boxFill   = color.NRGBA{255, 255, 255, 215}
+)
+
+// frame maps world coordinates (metres) to pixels.
+type frame struct {
+	x0, y0, pw, ph float64 // plot rectangle in pixels
+	win            grid.Window
+	s              float64 // pixels per metre
+}
+
+func (f frame) px(p r2.Vec) r2.Vec {
+	return r2.Vec{X: f.x0 + (p.X-f.win.Min.X)*f.s, Y: f.y0 + (f.win.Max.Y-p.Y)*f.s}
+}
+
+func (f frame) world(x, y float64) r2.Vec {
+	return r2.Vec{X: f.win.Min.X + (x-f.x0)/f.s, Y: f.win.Max.Y - (y-f.y0)/f.s}
+}
+
+func (f frame) pxs(pts []r2.Vec) []r2.Vec {
+	out := make([]r2.Vec, len(pts))
+	for i, p := range pts {
+		out[i] = f.px(p)
+	}
+	return out
+}
+
+// style holds the sizes of one picture, scaled with its size.
+type style struct {
+	font, small, title, line float64
+}
+
+func (m *Map) draw(c canvas, W, H float64) {
+	u := math.Min(W, H)
+	st := style{font: clamp(u/52, 10, 22)}
+	st.small = 0.85 * st.font
+	st.title = 1.3 * st.font
+	st.line = math.Max(1, u/700)
+
+	lo, hi, over := m.colourRange()
+	unit, scale := "m", 1.0
+	if m.Scene != nil && m.Scene.Problem.Scale > 0 {
+		scale = m.Scene.Problem.Scale
+		if m.Scene.Problem.Unit != "" {
+			unit = m.Scene.Problem.Unit
+		}
+	}
+
+	// Layout: title on top, axes left and bottom, colour bar right.
+	top := 1.0*st.font + st.title*1.6
+	if m.Subtitle != "" {
+		top += st.font * 1.5
+	}
+	left := st.font * 5.5
+	bottom := st.font * 4
+	barW := st.font * 1.2
+	right := st.font*1.2 + barW + st.font*0.6 + maxLabelWidth(c, lo, hi, st.small) + st.font*2.4
+	win := m.Grid.Window
+	size := win.Size()
+	aw, ah := W-left-right, H-top-bottom
+	s := math.Min(aw/size.X, ah/size.Y)
+	f := frame{pw: size.X * s, ph: size.Y * s, win: win, s: s}
+	f.x0 = left + (aw-f.pw)/2
+	shift := (ah - f.ph) / 2 // centre title and plot together
+	f.y0 = top + shift
+
+	m.drawField(c, f, lo, hi)
+	m.drawScene(c, f, st)
+	for _, l := range m.Contours {
+		c.stroke(contour, st.line, nil, false, f.pxs(l.Points))
+	}
+	for _, l := range m.Lines {
+		drawFluxLine(c, f, l, st)
+	}
+	m.drawLabels(c, f, st)
+	if m.Marker != nil {
+		drawMarker(c, f, *m.Marker, st)
+	}
+	drawAxes(c, f, st, unit, scale)
+	drawScaleBar(c, f, st, unit, scale)
+	var levels []float64
+	for _, l := range m.Contours {
+		levels = append(levels, l.Level)
+	}
+	drawColourBar(c, m.colors(), f.x0+f.pw+st.font*1.2, f.y0, barW, f.ph, lo, hi, over, levels, m.Label, st)
+
+	// Title and subtitle, left-aligned with the plot.
+	y := shift + st.font*0.8 + st.title
+	c.text(m.Title, f.x0, y, st.title, black, 0, 0, 0)
+	if m.Subtitle != "" {
+		c.text(m.Subtitle, f.x0, y+st.font*1.5, st.font, greyText, 0, 0, 0)
+	}
+}
+
+func clamp(x, lo, hi float64) float64 { return math.Min(hi, math.Max(lo, x)) }
+
+func (m *Map) colors() Colormap {
+	if m.Colors != nil {
+		return m.Colors
+	}
+	return Sequential
+}
+
+// colourRange returns the ends of the colour map and whether values rise
+// above the top end.
+func (m *Map) colourRange() (lo, hi float64, over bool) {
+	var fin []float64
+	for _, v := range m.Values {
+		if !math.IsNaN(v) && !math.IsInf(v, 0) {
+			fin = append(fin, v)
+		}
+	}
+	lo, hi = m.Lo, m.Hi
+	if !(hi > lo) {
+		if len(fin) == 0 {
+			return 0, 1, false
+		}
+		sort.Float64s(fin)
+		lo, hi = fin[0], fin[len(fin)-1]
+		if m.FromZero {
+			lo = math.Min(lo, 0)
+		}
+		if m.Clip > 0 && m.Clip < 1 {
+			hi = fin[int(m.Clip*float64(len(fin)-1))]
+		}
+		if !(hi > lo) {
+			hi = lo + math.Max(1, math.Abs(lo))*1e-6
+		}
+	}
+	for _, v := range fin {
+		if v > hi*(1+1e-12) {
+			over = true
+			break
+		}
+	}
+	return lo, hi, over
+}
+
+// drawField colours every pixel of the plot from the bilinear interpolant
+// of the samples (finite corners only, their weights renormalised, so that
+// colour reaches the edge of the domain; bodies are drawn over it).
+func (m *Map) drawField(c canvas, f frame, lo, hi float64) {
+	g := m.Grid
+	w, h := int(math.Ceil(f.pw)), int(math.Ceil(f.ph))
+	img := image.NewRGBA(image.Rect(0, 0, w, h))
+	cm := m.colors()
+	hs := g.Spacing()
+	for py := range h {
+		for px := range w {
+			p := f.world(f.x0+float64(px)+0.5, f.y0+float64(py)+0.5)
+			v := interpolate(g, m.Values, hs, p)
+			if math.IsNaN(v) {
+				continue
+			}
+			img.SetRGBA(px, py, cm.At((v-lo)/(hi-lo)))
+		}
+	}
+	c.image(img, f.x0, f.y0, float64(w), float64(h))
+}
+
+func interpolate(g *grid.Grid, vals []float64, hs r2.Vec, p r2.Vec) float64 {
+	fx := (p.X - g.Window.Min.X) / hs.X
+	fy := (p.Y - g.Window.Min.Y) / hs.Y
+	i := min(max(int(math.Floor(fx)), 0), g.NX-2)
+	j := min(max(int(math.Floor(fy)), 0), g.NY-2)
+	tx := clamp(fx-float64(i), 0, 1)
+	ty := clamp(fy-float64(j), 0, 1)
+	sum, wsum := 0.0, 0.0
+	for _, c := range [4]struct {
+		di, dj int
+		w      float64
+	}{{0, 0, (1 - tx) * (1 - ty)}, {1, 0, tx * (1 - ty)}, {0, 1, (1 - tx) * ty}, {1, 1, tx * ty}} {
+		v := vals[g.Index(i+c.di, j+c.dj)]
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			continue
+		}
+		sum += c.w * v
+		wsum += c.w
+	}
+	if wsum < 1e-6 {
+		// All weight on masked corners: use any finite corner.
+		for _, k := range [4]int{g.Index(i, j), g.Index(i+1, j), g.Index(i, j+1), g.Index(i+1, j+1)} {
+			if v := vals[k]; !math.IsNaN(v) && !math.IsInf(v, 0) {
+				return v
+			}
+		}
+		return math.NaN()
+	}
+	return sum / wsum
+}
+
+// oriented returns the ring running anticlockwise (ccw true) or clockwise
+// in the plane (y up).
+func oriented(r geom.Ring, ccw bool) []r2.Vec {
+	a := 0.0
+	for i := range r {
+		p, q := r[i], r[(i+1)%len(r)]
+		a += p.X*q.Y - q.X*p.Y
+	}
+	out := append([]r2.Vec(nil), r...)
+	if (a > 0) != ccw {
+		for i, j := 0, len(out)-1; i < j; i, j = i+1, j-1 {
+			out[i], out[j] = out[j], out[i]
+		}
+	}
+	return out
+}
+
+// polygonRings returns a polygon's rings in pixels, outer ring
+// anticlockwise and holes clockwise in the plane, so that the non-zero rule
+// leaves the holes empty.
+func polygonRings(f frame, pg geom.Polygon) [][]r2.Vec {
+	var out [][]r2.Vec
+	for k, r := range pg {
+		out = append(out, f.pxs(oriented(r, k == 0)))
+	}
+	return out
+}
+
+// drawScene masks what is not domain and draws bodies, regions and edges.
+func (m *Map) drawScene(c canvas, f frame, st style) {
+	sc := m.Scene
+	if sc == nil {
+		return
+	}
+	win := f.win
+	// Outside a closed scene's regions: the window clockwise, the region
+	// polygons anticlockwise (holes clockwise) on top of it.
+	if !sc.Problem.Open && len(sc.Regions) > 0 {
+		rect := []r2.Vec{win.Min, {X: win.Min.X, Y: win.Max.Y}, win.Max, {X: win.Max.X, Y: win.Min.Y}}
+		rings := [][]r2.Vec{f.pxs(rect)}
+		for _, rg := range sc.Regions {
+			for _, pg := range rg.Polygons {
+				rings = append(rings, polygonRings(f, pg)...)
+			}
+		}
+		c.fill(white, rings...)
+	}
+	if g := sc.Problem.Ground; g != nil && sc.Problem.Open && g.Y > win.Min.Y {
+		y := math.Min(g.Y, win.Max.Y)
+		below := []r2.Vec{{X: win.Min.X, Y: win.Min.Y}, {X: win.Max.X, Y: win.Min.Y}, {X: win.Max.X, Y: y}, {X: win.Min.X, Y: y}}
+		c.fill(groundCol, f.pxs(below))
+		c.stroke(bodyEdge, 2*st.line, nil, false, f.pxs([]r2.Vec{{X: win.Min.X, Y: y}, {X: win.Max.X, Y: y}}))
+	}
+	for _, rg := range sc.Regions {
+		for _, pg := range rg.Polygons {
+			for _, r := range pg {
+				c.stroke(bodyEdge, st.line, nil, true, f.pxs(r))
+			}
+		}
+	}
+	for _, b := range sc.Bodies {
+		for _, pg := range b.Polygons {
+			c.fill(bodyFill, polygonRings(f, pg)...)
+			for _, r := range pg {
+				c.stroke(bodyEdge, 1.5*st.line, nil, true, f.pxs(r))
+			}
+		}
+	}
+	for _, e := range sc.Edges {
+		for _, l := range e.Lines {
+			pts := f.pxs(l)
+			c.stroke(white, 5*st.line, nil, false, pts)
+			c.stroke(edgeCol, 3*st.line, nil, false, pts)
+		}
+	}
+}
+
+// drawLabels names the bodies (inside when they are large enough, beside
+// them otherwise), the edges and the ground plane.
+func (m *Map) drawLabels(c canvas, f frame, st style) {
+	sc := m.Scene
+	if sc == nil {
+		return
+	}
+	for _, b := range sc.Bodies {
+		if b.Name == "" || len(b.Polygons) == 0 {
+			continue
+		}
+		pg := largestPolygon(b.Polygons)
+		lo, hi := ringBounds(pg[0])
+		p0, p1 := f.px(lo), f.px(hi)
+		bw, bh := p1.X-p0.X, p0.Y-p1.Y
+		tw, th := c.measure(b.Name, st.font)
+		at := f.px(labelPoint(pg))
+		if tw+4 <= bw && th*1.6 <= bh && insidePolygon(pg, f.world(at.X, at.Y)) {
+			haloText(c, b.Name, at.X, at.Y, st.font, black, 0.5, 0.5)
+			continue
+		}
+		// Beside the body, at its right (left when that leaves the plot),
+		// vertically at its middle.
+		y := clamp((p0.Y+p1.Y)/2, f.y0+th, f.y0+f.ph-2)
+		x, ax := p1.X+st.font*0.4, 0.0
+		if x+tw > f.x0+f.pw {
+			x, ax = p0.X-st.font*0.4, 1
+		}
+		haloText(c, b.Name, x, y, st.font, black, ax, 0.5)
+	}
+	for _, e := range sc.Edges {
+		if e.Name == "" {
+			continue
+		}
+		a, b, ok := longestSegment(e.Lines)
+		if !ok {
+			continue
+		}
+		pa, pb := f.px(a), f.px(b)
+		mid := r2.Scale(0.5, r2.Add(pa, pb))
+		d := r2.Unit(r2.Sub(pb, pa))
+		nrm := r2.Vec{X: d.Y, Y: -d.X} // left of the line on screen
+		if nrm.Y > 0 {
+			nrm = r2.Scale(-1, nrm) // prefer above
+		}
+		at := r2.Add(mid, r2.Scale(st.font*0.9, nrm))
+		at.X = clamp(at.X, f.x0+st.font, f.x0+f.pw-st.font)
+		at.Y = clamp(at.Y, f.y0+st.font, f.y0+f.ph-st.font*0.5)
+		haloText(c, e.Name, at.X, at.Y, st.small, black, 0.5, 0.5)
+	}
+	if g := sc.Problem.Ground; g != nil && sc.Problem.Open && g.Y > f.win.Min.Y && g.Y < f.win.Max.Y {
+		p := f.px(r2.Vec{X: f.win.Min.X, Y: g.Y})
+		haloText(c, "ground plane", p.X+st.font*0.5, p.Y+st.font*1.1, st.small, ink, 0, 0.5)
+	}
+}
+
+// haloText draws text with a white halo so that it reads over any colour.
+func haloText(c canvas, s string, x, y, size float64, col color.Color, ax, ay float64) {
+	d := math.Max(1, size/12)
+	for _, o := range [8][2]float64{{-1, 0}, {1, 0}, {0, -1}, {0, 1}, {-1, -1}, {1, 1}, {-1, 1}, {1, -1}} {
+		c.text(s, x+o[0]*d, y+o[1]*d, size, halo, ax, ay, 0)
+	}
+	c.text(s, x, y, size, col, ax, ay, 0)
+}
+
+func ringBounds(r geom.Ring) (lo, hi r2.Vec) {
+	lo = r2.Vec{X: math.Inf(1), Y: math.Inf(1)}
+	hi = r2.Vec{X: math.Inf(-1), Y: math.Inf(-1)}
+	for _, p := range r {
+		lo.X, lo.Y = math.Min(lo.X, p.X), math.Min(lo.Y, p.Y)
+		hi.X, hi.Y = math.Max(hi.X, p.X), math.Max(hi.Y, p.Y)
+	}
+	return lo, hi
+}
+
+func ringArea(r geom.Ring) float64 {
+	a := 0.0
+	for i := range r {
+		p, q := r[i], r[(i+1)%len(r)]
+		a += p.X*q.Y - q.X*p.Y
+	}
+	return math.Abs(a) / 2
+}
+
+func largestPolygon(ps []geom.Polygon) geom.Polygon {
+	best, at := -1.0, 0
+	for i, pg := range ps {
+		if len(pg) > 0 {
+			if a := ringArea(pg[0]); a > best {
+				best, at = a, i
+			}
+		}
+	}
+	return ps[at]
+}
+
+// insidePolygon reports whether p is inside the polygon (holes excluded),
+// by the even-odd rule.
+func insidePolygon(pg geom.Polygon, p r2.Vec) bool {
+	in := false
+	for _, r := range pg {
+		for i := range r {
+			a, b := r[i], r[(i+1)%len(r)]
+			if (a.Y > p.Y) != (b.Y > p.Y) && p.X < a.X+(p.Y-a.Y)*(b.X-a.X)/(b.Y-a.Y) {
+				in = !in
+			}
+		}
+	}
+	return in
+}
+
+// labelPoint returns a point well inside the polygon: the middle of the
+// longest horizontal chord through its bounding box's middle height (the
+// centre of a convex shape, and still inside a ring or an L).
+func labelPoint(pg geom.Polygon) r2.Vec {
+	lo, hi := ringBounds(pg[0])
+	bestLen, best := -1.0, r2.Scale(0.5, r2.Add(lo, hi))
+	for _, fy := range []float64{0.5, 0.4, 0.6, 0.3, 0.7, 0.2, 0.8} {
+		y := lo.Y + fy*(hi.Y-lo.Y)
+		var xs []float64
+		for _, r := range pg {
+			for i := range r {
+				a, b := r[i], r[(i+1)%len(r)]
+				if (a.Y > y) != (b.Y > y) {
+					xs = append(xs, a.X+(y-a.Y)*(b.X-a.X)/(b.Y-a.Y))
+				}
+			}
+		}
+		sort.Float64s(xs)
+		for k := 0; k+1 < len(xs); k += 2 {
+			if l := xs[k+1] - xs[k]; l > bestLen*1.2 {
+				bestLen, best = l, r2.Vec{X: 0.5 * (xs[k] + xs[k+1]), Y: y}
+			}
+		}
+	}
+	return best
+}
+
+func longestSegment(lines []geom.Line) (a, b r2.Vec, ok bool) {
+	best := -1.0
+	for _, l := range lines {
+		for i := 0; i+1 < len(l); i++ {
+			if d := r2.Norm(r2.Sub(l[i+1], l[i])); d > best {
+				best, a, b, ok = d, l[i], l[i+1], true
+			}
+		}
+	}
+	return a, b, ok
+}
+
+// drawFluxLine draws a flux line with an arrowhead at its middle.
+func drawFluxLine(c canvas, f frame, l []r2.Vec, st style) {
+	if len(l) < 2 {
+		return
+	}
+	pts := f.pxs(l)
+	c.stroke(fluxLine, 1.3*st.line, nil, false, pts)
+	total := 0.0
+	for i := 1; i < len(pts); i++ {
+		total += r2.Norm(r2.Sub(pts[i], pts[i-1]))
+	}
+	if total < 6*st.font {
+		return
+	}
+	acc := 0.0
+	for i := 1; i < len(pts); i++ {
+		d := r2.Norm(r2.Sub(pts[i], pts[i-1]))
+		if acc+d >= total/2 && d > 0 {
+			t := (total/2 - acc) / d
+			p := r2.Add(pts[i-1], r2.Scale(t, r2.Sub(pts[i], pts[i-1])))
+			dir := r2.Unit(r2.Sub(pts[i], pts[i-1]))
+			n := r2.Vec{X: -dir.Y, Y: dir.X}
+			s := st.font * 0.45
+			tip := r2.Add(p, r2.Scale(s, dir))
+			back := r2.Sub(p, r2.Scale(s, dir))
+			c.fill(fluxLine, []r2.Vec{tip, r2.Add(back, r2.Scale(0.6*s, n)), r2.Sub(back, r2.Scale(0.6*s, n))})
+			return
+		}
+		acc += d
+	}
+}
+
+// drawMarker circles a point and writes its text beside it.
+func drawMarker(c canvas, f frame, mk Marker, st style) {
+	p := f.px(mk.At)
+	r := st.font * 0.6
+	circ := make([]r2.Vec, 32)
+	for i := range circ {
+		t := 2 * math.Pi * float64(i) / 32
+		circ[i] = r2.Vec{X: p.X + r*math.Cos(t), Y: p.Y + r*math.Sin(t)}
+	}
+	c.stroke(white, 4*st.line, nil, true, circ)
+	c.stroke(black, 2*st.line, nil, true, circ)
+	c.stroke(black, 1.5*st.line, nil, false, []r2.Vec{{X: p.X - 1.8*r, Y: p.Y}, {X: p.X - 1.1*r, Y: p.Y}})
+	c.stroke(black, 1.5*st.line, nil, false, []r2.Vec{{X: p.X + 1.1*r, Y: p.Y}, {X: p.X + 1.8*r, Y: p.Y}})
+	if mk.Text == "" {
+		return
+	}
+	tw, _ := c.measure(mk.Text, st.font)
+	x, ax := p.X+2.2*r, 0.0
+	if x+tw > f.x0+f.pw {
+		x, ax = p.X-2.2*r, 1
+	}
+	y := p.Y - 1.6*r
+	if y < f.y0+st.font {
+		y = p.Y + 2.2*r
+	}
+	haloText(c, mk.Text, x, y, st.font, black, ax, 0.5)
+}
+
+// drawAxes draws the frame with ticks labelled in the scene's unit.
+func drawAxes(c canvas, f frame, st style, unit string, scale float64) {
+	rect := []r2.Vec{{X: f.x0, Y: f.y0}, {X: f.x0 + f.pw, Y: f.y0}, {X: f.x0 + f.pw, Y: f.y0 + f.ph}, {X: f.x0, Y: f.y0 + f.ph}}
+	c.stroke(ink, st.line, nil, true, rect)
+	tl := st.font * 0.4
+	n := func(pix float64) int { return max(2, int(pix/(st.font*7))) }
+	xs, xstep := ticks(f.win.Min.X/scale, f.win.Max.X/scale, n(f.pw))
+	for _, v := range xs {
+		p := f.px(r2.Vec{X: v * scale, Y: f.win.Min.Y})
+		c.stroke(ink, st.line, nil, false, []r2.Vec{p, {X: p.X, Y: p.Y + tl}})
+		c.text(formatTick(v, xstep), p.X, p.Y+tl+st.small*1.2, st.small, ink, 0.5, 0, 0)
+	}
+	ys, ystep := ticks(f.win.Min.Y/scale, f.win.Max.Y/scale, n(f.ph))
+	for _, v := range ys {
+		p := f.px(r2.Vec{X: f.win.Min.X, Y: v * scale})
+		c.stroke(ink, st.line, nil, false, []r2.Vec{p, {X: p.X - tl, Y: p.Y}})
+		c.text(formatTick(v, ystep), p.X-tl-st.small*0.3, p.Y, st.small, ink, 1, 0.5, 0)
+	}
+	c.text("x ("+unit+")", f.x0+f.pw/2, f.y0+f.ph+tl+st.small*1.2+st.font*1.6, st.font, ink, 0.5, 0, 0)
+	c.text("y ("+unit+")", f.x0-st.font*4.3, f.y0+f.ph/2, st.font, ink, 0.5, 0.5, math.Pi/2)
+}
+
+// drawScaleBar draws a bar of a round length in the scene's unit at the
+// plot's lower left.
+func drawScaleBar(c canvas, f frame, st style, unit string, scale float64) {
+	length := niceBelow(0.25 * f.win.Size().X / scale)
+	if !(length > 0) {
+		return
+	}
+	pl := length * scale * f.s
+	label := formatValue(length) + " " + unit
+	tw, _ := c.measure(label, st.small)
+	pad := st.font * 0.5
+	x := f.x0 + pad*2
+	y := f.y0 + f.ph - pad*2
+	bh := st.font * 0.45
+	box := []r2.Vec{{X: x - pad, Y: y + pad}, {X: x + math.Max(pl, tw) + pad, Y: y + pad},
+		{X: x + math.Max(pl, tw) + pad, Y: y - bh - st.small*1.6 - pad}, {X: x - pad, Y: y - bh - st.small*1.6 - pad}}
+	c.fill(boxFill, box)
+	half := []r2.Vec{{X: x, Y: y}, {X: x + pl/2, Y: y}, {X: x + pl/2, Y: y - bh}, {X: x, Y: y - bh}}
+	c.fill(black, half)
+	c.stroke(black, st.line, nil, true, []r2.Vec{{X: x, Y: y}, {X: x + pl, Y: y}, {X: x + pl, Y: y - bh}, {X: x, Y: y - bh}})
+	c.text(label, x, y-bh-st.small*0.5, st.small, black, 0, 0, 0)
+}
+
+// maxLabelWidth estimates the width of the colour bar's tick labels.
+func maxLabelWidth(c canvas, lo, hi, size float64) float64 {
+	vals, step := ticks(lo, hi, 6)
+	w := 0.0
+	for _, v := range vals {
+		tw, _ := c.measure(formatTick(v, step), size)
+		w = math.Max(w, tw)
+	}
+	return w
+}
+
+// drawColourBar draws the colour map from lo (bottom) to hi (top) with
+// ticks, the contour levels as thin marks and the label, rotated, at its
+// right; an arrow on top when values rise above hi.
+func drawColourBar(c canvas, cm Colormap, x, y, w, h, lo, hi float64, over bool, levels []float64, label string, st style) {
+	if over {
+		// Leave room for the arrow.
+		y += w
+		h -= w
+	}
+	n := max(int(h), 2)
+	iw := max(int(w), 1) // several pixels wide: viewers smooth a 1-pixel strip into its transparent surround
+	img := image.NewRGBA(image.Rect(0, 0, iw, n))
+	for i := range n {
+		col := cm.At(1 - (float64(i)+0.5)/float64(n))
+		for k := range iw {
+			img.SetRGBA(k, i, col)
+		}
+	}
+	c.image(img, x, y, w, h)
+	if over {
+		c.fill(cm.At(1), []r2.Vec{{X: x, Y: y}, {X: x + w, Y: y}, {X: x + w/2, Y: y - w}})
+		c.stroke(ink, st.line, nil, true, []r2.Vec{{X: x, Y: y}, {X: x + w, Y: y}, {X: x + w/2, Y: y - w}})
+	}
+	c.stroke(ink, st.line, nil, true, []r2.Vec{{X: x, Y: y}, {X: x + w, Y: y}, {X: x + w, Y: y + h}, {X: x, Y: y + h}})
+	at := func(v float64) float64 { return y + h - (v-lo)/(hi-lo)*h }
+	for _, lv := range levels {
+		if lv >= lo && lv <= hi {
+			c.stroke(contour, st.line, nil, false, []r2.Vec{{X: x, Y: at(lv)}, {X: x + w, Y: at(lv)}})
+		}
+	}
+	vals, step := ticks(lo, hi, max(2, int(h/(st.font*3.5))))
+	lw := 0.0
+	for _, v := range vals {
+		py := at(v)
+		c.stroke(ink, st.line, nil, false, []r2.Vec{{X: x + w, Y: py}, {X: x + w + st.font*0.35, Y: py}})
+		s := formatTick(v, step)
+		tw, _ := c.measure(s, st.small)
+		lw = math.Max(lw, tw)
+		c.text(s, x+w+st.font*0.6, py, st.small, ink, 0, 0.5, 0)
+	}
+	c.text(label, x+w+st.font*0.6+lw+st.font*1.1, y+h/2, st.font, ink, 0.5, 0.5, -math.Pi/2)
+}
