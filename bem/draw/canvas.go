@@ -158,7 +158,9 @@ func newVector(w, h int) *vectorCanvas {
 	return &vectorCanvas{c: vgsvg.New(vg.Length(w), vg.Length(h)), h: float64(h)}
 }
 
-func (c *vectorCanvas) pt(p r2.Vec) vg.Point { return vg.Point{X: vg.Length(p.X), Y: vg.Length(c.h - p.Y)} }
+func (c *vectorCanvas) pt(p r2.Vec) vg.Point {
+	return vg.Point{X: vg.Length(p.X), Y: vg.Length(c.h - p.Y)}
+}
 
 func (c *vectorCanvas) path(rings [][]r2.Vec, closed bool) vg.Path {
 	var p vg.Path

@@ -51,11 +51,11 @@ var Sequential = deriveSequential(256)
 
 // Path of the derived map in OKLCh.
 const (
-	seqL0, seqL1 = 0.30, 0.93  // lightness at the ends
-	seqH0, seqH1 = 265.0, 105  // hue at the ends, degrees
-	seqCmax      = 0.16        // chroma aimed at (reduced where sRGB has less)
-	seqCmin      = 0.085       // chroma at the ends' low point
-	seqSteps     = 4096        // fine sampling before resampling by distance
+	seqL0, seqL1 = 0.30, 0.93 // lightness at the ends
+	seqH0, seqH1 = 265.0, 105 // hue at the ends, degrees
+	seqCmax      = 0.16       // chroma aimed at (reduced where sRGB has less)
+	seqCmin      = 0.085      // chroma at the ends' low point
+	seqSteps     = 4096       // fine sampling before resampling by distance
 )
 
 // lab is a colour in OKLab.
