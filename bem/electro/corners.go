@@ -1,0 +1,184 @@
+package electro
+
+import (
+	"math"
+	"slices"
+
+	"github.com/rimfield/rimfield/mesh"
+	"gonum.org/v1/gonum/spatial/r2"
+)
+
+// straightTol is how far from the critical opening a corner must be to
+// count as singular: a polygon approximating a circle turns by a few tenths
+// of a degree per vertex and is smooth for every practical purpose.
+const straightTol = 10 * math.Pi / 180
+
+// Corner is a vertex of a conductor's surface where the field is infinite
+// in theory.
+type Corner struct {
+	At       r2.Vec // metres
+	Owner    int    // the conductor, index into Layout.Owners
+	Boundary string // its name
+	// Opening is the field-side opening angle beta in radians (between
+	// pi and 2 pi at a conductor's outer corner, 2 pi at a thin edge).
+	Opening float64
+	// Mixed is true where the conductor ends on an insulated boundary
+	// (fixed potential meets zero flux) rather than at a corner of its own.
+	Mixed bool
+	// Exponent p < 0 of the field near the vertex, |E| ~ A r^p:
+	// p = pi/beta - 1 at a corner, pi/(2 beta) - 1 where the conductor
+	// meets an insulated boundary.
+	Exponent float64
+	// Coefficient A (V m^(-1-p)) fitted to the panels of the conductor near
+	// the vertex; NaN when too few panels lie close enough to fit it.
+	Coefficient float64
+	// inner is the distance from the vertex within which the panels are
+	// too coarse for the field's singularity: three times the length of the
+	// conductor's panels that touch the vertex.
+	inner float64
+}
+
+// FieldAt returns the asymptotic field A r^p at distance r (metres) from
+// the vertex.
+func (c Corner) FieldAt(r float64) float64 { return c.Coefficient * math.Pow(r, c.Exponent) }
+
+// arcFactor is how much higher the peak of a circular round-off is than
+// that of the ideal rounded wedge of the same tip radius: 1.20 to 1.21
+// measured at a square corner for radii from 1/50 to 1/5 of the side
+// (TestRoundingRadius), rounded up.
+const arcFactor = 1.25
+
+// RoundingRadius returns the radius (metres) of a circular round-off of the
+// corner that brings its peak field down to about target (V/m). From the
+// wedge asymptotics, a rounded edge of tip radius rho whose field far from
+// the tip matches A r^p peaks at A (|p| rho)^p (see the package
+// documentation); a circular arc peaks up to arcFactor higher, so
+// rho = (target / (arcFactor A))^(1/p) / |p|. It returns 0 when the
+// coefficient is unknown or target is not positive. The estimate holds for
+// radii well below the conductor's size.
+func (c Corner) RoundingRadius(target float64) float64 {
+	if !(target > 0) || !(c.Coefficient > 0) || !(c.Exponent < 0) {
+		return 0
+	}
+	return math.Pow(target/(arcFactor*c.Coefficient), 1/c.Exponent) / -c.Exponent
+}
+
+// Corners returns the singular vertices of the conductors' surfaces: where
+// two panels of conductors meet with a field-side opening beta above pi,
+// or a conductor meets an insulated boundary with beta above pi/2 (field
+// r^(pi/(2 beta) - 1)); in both cases beyond a margin of 10 degrees. The
+// opening is taken over the whole field side, across any dielectric
+// interface that starts at the vertex; the exponent is then the one of a
+// uniform dielectric, an approximation.
+func (f *Fields) Corners() []Corner {
+	m := f.Sol.Mesh
+	// Boundary panels by start vertex, to find what follows a panel
+	// around the domain.
+	starts := map[r2.Vec][]int{}
+	for k, p := range m.Panels {
+		if !p.Interface() {
+			starts[p.A] = append(starts[p.A], k)
+		}
+	}
+	var out []Corner
+	for _, p := range m.Panels {
+		if p.Interface() {
+			continue
+		}
+		// The next boundary panel clockwise from the way back along j:
+		// the one leaving the vertex with the smallest opening.
+		back := r2.Scale(-1, p.Tangent())
+		k, beta := -1, 0.0
+		for _, c := range starts[p.B] {
+			d := m.Panels[c].Tangent()
+			a := math.Atan2(r2.Cross(d, back), r2.Dot(d, back))
+			if a <= 0 {
+				a += 2 * math.Pi
+			}
+			if k < 0 || a < beta {
+				k, beta = c, a
+			}
+		}
+		if k < 0 {
+			continue
+		}
+		q := m.Panels[k]
+		cj, ck := conductor(p), conductor(q)
+		var c Corner
+		switch {
+		case cj && ck:
+			if beta <= math.Pi+straightTol {
+				continue
+			}
+			c = Corner{Opening: beta, Exponent: math.Pi/beta - 1}
+		case cj || ck:
+			if beta <= math.Pi/2+straightTol {
+				continue
+			}
+			c = Corner{Opening: beta, Mixed: true, Exponent: math.Pi/(2*beta) - 1}
+		default:
+			continue
+		}
+		c.At = p.B
+		c.Owner = p.Owner
+		if !cj {
+			c.Owner = q.Owner
+		}
+		c.Boundary = m.Layout.Owners[c.Owner].Name
+		c.Coefficient, c.inner = f.fitCorner(c)
+		out = append(out, c)
+	}
+	return out
+}
+
+// fitCorner fits A in |E| = A r^p to the conductor panels of the corner's
+// owner that lie near its vertex: the median of |E_j| r_j^(-p) over the
+// panels whose midpoints are between three times the length of the panels
+// touching the vertex (the inner distance it also returns) and a quarter of
+// the nominal panel size away. The panels at the vertex carry the largest
+// discretisation error, since constant elements cannot follow r^p there;
+// further out the field departs from the local asymptotics.
+func (f *Fields) fitCorner(c Corner) (coef, inner float64) {
+	m := f.Sol.Mesh
+	type sample struct{ r, e float64 }
+	var near []sample
+	smallest := math.Inf(1)
+	reach := reachOf(m)
+	for j, p := range m.Panels {
+		if !conductor(p) || p.Owner != c.Owner {
+			continue
+		}
+		r := r2.Norm(r2.Sub(p.Mid(), c.At))
+		if r <= reach {
+			near = append(near, sample{r, math.Abs(f.Normal[j])})
+			if p.A == c.At || p.B == c.At {
+				smallest = math.Min(smallest, p.Length())
+			}
+		}
+	}
+	inner = 3 * smallest
+	var as []float64
+	for _, s := range near {
+		if s.r >= inner && s.r <= 0.25*reach {
+			as = append(as, s.e*math.Pow(s.r, -c.Exponent))
+		}
+	}
+	if len(as) < 3 {
+		return math.NaN(), inner
+	}
+	slices.Sort(as)
+	return as[len(as)/2], inner
+}
+
+// reachOf returns the nominal panel size of the mesh, or the mean panel
+// length when it is not recorded.
+func reachOf(m *mesh.Mesh) float64 {
+	if m.Size > 0 {
+		return m.Size
+	}
+	total := 0.0
+	for _, p := range m.Panels {
+		total += p.Length()
+	}
+	return total / float64(max(len(m.Panels), 1))
+}
