@@ -51,7 +51,8 @@ type Solution struct {
 	// Warnings lists numerical concerns, one sentence each.
 	Warnings []string
 
-	pr *problem
+	pr     *problem
+	slopes [][]float64 // per region, per side: du/ds for the near-field correction
 }
 
 // OwnerResult is the integrated result on one body or edge.

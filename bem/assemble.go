@@ -34,6 +34,9 @@ type side struct {
 	frame panelFrame // in the region's transformed frame, oriented with the region on the left
 	image panelFrame // the mirror image in the grounded plane (transformed frame), if any
 	scale float64    // original length over transformed length, over kbar
+	// prev and next are the sides that share this side's start and end
+	// points (walking with the region on the left), or -1.
+	prev, next int
 }
 
 // transform maps a point into the region's isotropic frame.
@@ -197,6 +200,9 @@ func newProblem(m *mesh.Mesh) (*problem, error) {
 		if p.Interface() {
 			pr.addSide(p.Right, j, -1)
 		}
+	}
+	for i := range pr.regions {
+		pr.regions[i].link()
 	}
 	// Region constants: the potential at infinity of the background (an
 	// unknown when some potential is fixed and no grounded plane holds it at
@@ -368,4 +374,21 @@ func (pr *problem) colScale(j int) float64 {
 		return pr.fScale[j]
 	}
 	return 1
+}
+
+// link finds each side's neighbours along the boundary: the side whose end
+// is this side's start and the side whose start is its end. Panels of a
+// mesh share their endpoints exactly.
+func (r *region) link() {
+	starts := make(map[r2.Vec]int, len(r.sides))
+	for k := range r.sides {
+		starts[r.sides[k].frame.a] = k
+		r.sides[k].prev, r.sides[k].next = -1, -1
+	}
+	for k := range r.sides {
+		if n, ok := starts[r.sides[k].frame.b]; ok && n != k {
+			r.sides[k].next = n
+			r.sides[n].prev = k
+		}
+	}
 }

@@ -84,6 +84,8 @@ func (s *Solution) evalIn(reg int, p r2.Vec) (float64, r2.Vec) {
 	r := &s.pr.regions[reg]
 	u := s.Const[reg]
 	var g r2.Vec
+	slopes := s.slopes[reg]
+	X := r.transform(p)
 	for k := range r.sides {
 		sd := &r.sides[k]
 		cu, cf, gu, gf := r.fieldCoefficients(sd, p)
@@ -91,8 +93,60 @@ func (s *Solution) evalIn(reg int, p r2.Vec) (float64, r2.Vec) {
 		fj := sd.sign * s.F[sd.panel]
 		u += cf*fj - cu*uj
 		g = r2.Add(g, r2.Sub(r2.Scale(fj, gf), r2.Scale(uj, gu)))
+		if m := slopes[k]; m != 0 {
+			// The linear part of the potential along the panel (see
+			// linear): without it the jumps of the piecewise-constant
+			// potential between panels show as 1/r artefacts in the
+			// gradient within a panel length of the boundary.
+			d1, g1 := sd.frame.linear(X)
+			if r.image {
+				// The image panel runs the other way: its density is -(s' - L/2).
+				id1, ig1 := sd.image.linear(X)
+				d1 += id1
+				g1 = r2.Add(g1, ig1)
+			}
+			u -= m * d1
+			g = r2.Sub(g, r2.Scale(m, r2.Vec{X: r.ax * g1.X, Y: g1.Y / r.ax}))
+		}
 	}
 	return u, g
+}
+
+// computeSlopes reconstructs, for every side of every region, the slope of
+// the potential along the side (per transformed length) from the midpoint
+// values of its neighbours, on the sides where the potential is an unknown
+// that varies (flux boundaries and interfaces); fixed and floating
+// potentials are constant per boundary and keep slope 0.
+func (s *Solution) computeSlopes() {
+	pr := s.pr
+	s.slopes = make([][]float64, len(pr.regions))
+	for i := range pr.regions {
+		r := &pr.regions[i]
+		sl := make([]float64, len(r.sides))
+		for k := range r.sides {
+			sd := &r.sides[k]
+			p := pr.m.Panels[sd.panel]
+			if !p.Interface() && p.Cond.Kind != geom.Flux {
+				continue
+			}
+			u0 := s.U[sd.panel]
+			var du, ds float64
+			if sd.prev >= 0 {
+				q := &r.sides[sd.prev]
+				du += u0 - s.U[q.panel]
+				ds += 0.5 * (q.frame.l + sd.frame.l)
+			}
+			if sd.next >= 0 {
+				q := &r.sides[sd.next]
+				du += s.U[q.panel] - u0
+				ds += 0.5 * (q.frame.l + sd.frame.l)
+			}
+			if ds > 0 {
+				sl[k] = du / ds
+			}
+		}
+		s.slopes[i] = sl
+	}
 }
 
 // Owners returns the integrated results per body and edge, in Layout.Owners

@@ -110,3 +110,28 @@ func (p *panelFrame) all(x r2.Vec) (sl, dl float64, gsl, gdl r2.Vec) {
 	gdl = r2.Scale(inv2Pi, r2.Add(r2.Scale(ct, p.t), r2.Scale(cn, p.n)))
 	return sl, dl, gsl, gdl
 }
+
+// linear returns the double-layer integral of the density s - L/2 (s the
+// arc length from a) and its gradient at x off the panel:
+//
+//	int (s - L/2) dG/dn_y ds = (xi0 - L/2) D + eta0 ln(rho_b/rho_a) / (2 pi)
+//
+// with D the constant-density double layer, from
+// int tau eta0/(tau^2 + eta0^2) dtau = eta0 ln(rho_b/rho_a).
+func (p *panelFrame) linear(x r2.Vec) (d1 float64, g1 r2.Vec) {
+	_, dl, _, gdl := p.all(x)
+	xa := r2.Sub(x, p.a)
+	xb := r2.Sub(x, p.b)
+	xi0 := r2.Dot(xa, p.t)
+	eta0 := r2.Dot(xa, p.n)
+	ra2 := r2.Norm2(xa)
+	rb2 := r2.Norm2(xb)
+	lr := 0.5 * math.Log(rb2/ra2)
+	c := xi0 - 0.5*p.l
+	d1 = c*dl + inv2Pi*eta0*lr
+	// grad lr = (x-b)/rho_b^2 - (x-a)/rho_a^2.
+	glr := r2.Sub(r2.Scale(1/rb2, xb), r2.Scale(1/ra2, xa))
+	g1 = r2.Add(r2.Add(r2.Scale(dl, p.t), r2.Scale(c, gdl)),
+		r2.Add(r2.Scale(inv2Pi*lr, p.n), r2.Scale(inv2Pi*eta0, glr)))
+	return d1, g1
+}

@@ -216,3 +216,38 @@ func (p *panelFrame) gradients(x r2.Vec) (gsl, gdl r2.Vec) {
 	gdl = r2.Scale(inv2Pi, r2.Add(r2.Scale(ct, p.t), r2.Scale(cn, p.n)))
 	return gsl, gdl
 }
+
+// The linear-density double layer against quadrature of its definition
+// int (s - L/2) dG/dn_y ds, and its gradient against differences.
+func TestLinearDensity(t *testing.T) {
+	rng := rand.New(rand.NewPCG(4, 4))
+	for trial := 0; trial < 200; trial++ {
+		a := r2.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64()}
+		b := r2.Add(a, r2.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64()})
+		p := newFrame(a, b)
+		s0 := p.l * (rng.Float64()*1.6 - 0.3)
+		d := p.l * math.Pow(10, -4+5*rng.Float64())
+		if trial%2 == 0 {
+			d = -d
+		}
+		x := r2.Add(r2.Add(a, r2.Scale(s0, p.t)), r2.Scale(d, p.n))
+		d1, g1 := p.linear(x)
+		want := quadPanel(func(s float64) float64 {
+			r := r2.Sub(r2.Add(a, r2.Scale(s, p.t)), x)
+			return (s - p.l/2) * -inv2Pi * r2.Dot(r, p.n) / r2.Norm2(r)
+		}, p.l, s0, math.Abs(d))
+		if math.Abs(d1-want) > 1e-10*math.Max(1, p.l) {
+			t.Errorf("trial %d: %v, quadrature %v", trial, d1, want)
+		}
+		hh := 1e-6 * math.Abs(d)
+		for k, e := range []r2.Vec{{X: 1}, {Y: 1}} {
+			dp, _ := p.linear(r2.Add(x, r2.Scale(hh, e)))
+			dm, _ := p.linear(r2.Sub(x, r2.Scale(hh, e)))
+			fd := (dp - dm) / (2 * hh)
+			gk := []float64{g1.X, g1.Y}[k]
+			if math.Abs(fd-gk) > 1e-5*math.Max(1, math.Abs(gk)) {
+				t.Errorf("trial %d: gradient %d %v, differences %v", trial, k, gk, fd)
+			}
+		}
+	}
+}

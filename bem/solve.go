@@ -155,6 +155,7 @@ func (sys *System) solution(x []float64, conds []geom.Condition) *Solution {
 			s.Const[i] = x[r.constCol]
 		}
 	}
+	s.computeSlopes()
 	return s
 }
 
