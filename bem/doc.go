@@ -49,6 +49,17 @@
 // factorised once by dense LU (gonum); one factorisation serves any number
 // of right-hand sides (System.Solve with Data).
 //
+// # Evaluation
+//
+// Potential and gradient at a point come from the representation of the
+// region that contains it (located by the winding number of its boundary),
+// with the same closed forms. On flux boundaries and interfaces the
+// potential varies along the boundary; there the evaluator adds the
+// closed-form double layer of a linear reconstruction of the potential along
+// each panel (slope from the neighbouring midpoints), which removes the 1/r
+// artefacts that the jumps of a piecewise-constant potential would cause
+// within a panel length of the boundary.
+//
 // # Accuracy
 //
 // Measured by the tests: integrated inflows converge as h^2 or faster on
