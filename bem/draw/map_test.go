@@ -181,3 +181,41 @@ func TestMapErrors(t *testing.T) {
 		t.Error("a 50 x 50 picture must fail")
 	}
 }
+
+func TestBoundaryCharts(t *testing.T) {
+	s := solveScene(t, seepageScene(), 40)
+	pot, in := BoundarySeries(s.sol)
+	if len(pot) != 4 || len(in) != 4 {
+		t.Fatalf("%d and %d series, want one per body and edge (4)", len(pot), len(in))
+	}
+	// The upstream bed is held at 6 m of head: its series is flat at 6.
+	for _, sr := range pot {
+		if sr.Name != "upstream bed" {
+			continue
+		}
+		for _, v := range sr.Y {
+			if v != 6 {
+				t.Fatalf("upstream bed potential %v, want 6", v)
+			}
+		}
+	}
+	cs := Charts{
+		{Title: "Potential along the boundaries", XLabel: "arc length (m)", YLabel: "total head (m)", Series: pot},
+		{Title: "Inflow density", XLabel: "arc length (m)", YLabel: "inflow (m/s)", Series: in, Clip: 0.98},
+	}
+	var buf bytes.Buffer
+	if err := cs.PNG(&buf, 800, 700); err != nil {
+		t.Fatal(err)
+	}
+	checkPNG(t, buf.Bytes(), 800, 700, 8)
+	keep(t, "boundary.png", buf.Bytes())
+	buf.Reset()
+	if err := cs.SVG(&buf, 800, 700); err != nil {
+		t.Fatal(err)
+	}
+	checkSVG(t, buf.Bytes())
+	bad := &Chart{Series: []Series{{Name: "x", X: []float64{1}, Y: nil}}}
+	if err := bad.PNG(io.Discard, 400, 300); err == nil {
+		t.Error("a series with mismatched lengths must fail")
+	}
+}
