@@ -19,6 +19,10 @@ type Corner struct {
 	At       r2.Vec // metres
 	Owner    int    // the conductor, index into Layout.Owners
 	Boundary string // its name
+	// Region is the region on the field side next to the vertex (the Left
+	// of the conductor's panel that ends or starts there), index into
+	// Layout.Regions.
+	Region int
 	// Opening is the field-side opening angle beta in radians (between
 	// pi and 2 pi at a conductor's outer corner, 2 pi at a thin edge).
 	Opening float64
@@ -120,9 +124,9 @@ func (f *Fields) Corners() []Corner {
 			continue
 		}
 		c.At = p.B
-		c.Owner = p.Owner
+		c.Owner, c.Region = p.Owner, p.Left
 		if !cj {
-			c.Owner = q.Owner
+			c.Owner, c.Region = q.Owner, q.Left
 		}
 		c.Boundary = m.Layout.Owners[c.Owner].Name
 		c.Coefficient, c.inner = f.fitCorner(c)
