@@ -55,18 +55,21 @@ type Report struct {
 // conductor on sys's factorisation), the panel fields, the conductor peak
 // field with the singular corners and their rounding radii, the breakdown
 // margins, the energy and the forces of sol, the solution of sys for the
-// scene's own conditions; sc is the scene the mesh was built from. Its
-// warnings name conductors and place corners in the scene's unit.
+// scene's own conditions; sc is the scene the mesh was built from. With a
+// nil sys the capacitance matrix is left out. Its warnings name conductors
+// and place corners in the scene's unit.
 func Analyse(sc *geom.Scene, sys *bem.System, sol *bem.Solution, o Options) (*Report, error) {
 	rep := &Report{}
-	cm, err := Capacitance(sys, sol.Mesh)
-	switch {
-	case errors.Is(err, ErrNoConductors):
-	case err != nil:
-		return nil, err
-	default:
-		rep.Capacitance = cm
-		rep.Warnings = append(rep.Warnings, cm.Warnings...)
+	if sys != nil {
+		cm, err := Capacitance(sys, sol.Mesh)
+		switch {
+		case errors.Is(err, ErrNoConductors):
+		case err != nil:
+			return nil, err
+		default:
+			rep.Capacitance = cm
+			rep.Warnings = append(rep.Warnings, cm.Warnings...)
+		}
 	}
 	f := PanelFields(sol)
 	rep.Fields = f
