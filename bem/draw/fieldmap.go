@@ -139,7 +139,7 @@ type style struct {
 
 func (m *Map) draw(c canvas, W, H float64) {
 	u := math.Min(W, H)
-	st := style{font: clamp(u/52, 10, 22)}
+	st := style{font: clamp(math.Sqrt(W*H)/60, 11, 22)}
 	st.small = 0.85 * st.font
 	st.title = 1.3 * st.font
 	st.line = math.Max(1, u/700)

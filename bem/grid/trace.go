@@ -97,6 +97,9 @@ const (
 	// uniformTol: a potential range below uniformTol times the largest
 	// potential is taken as no potential difference (rounding).
 	uniformTol = 1e-9
+	// denseSpacing: accepted steps are filled in with interpolated points
+	// no farther apart than this fraction of the window diagonal.
+	denseSpacing = 0.004
 	// seedOffset: seeds start this fraction of their panel's length inside
 	// the domain.
 	seedOffset = 1e-3
@@ -341,8 +344,8 @@ func (tr *tracer) trace(s seed) Line {
 			return ln
 		}
 		length += r2.Norm(r2.Sub(xn, x))
+		ln.Points = tr.dense(ln.Points, x, xn, k[0], k[6], h)
 		x = xn
-		ln.Points = append(ln.Points, x)
 		k1 = k[6] // first same as last
 		grow := 5.0
 		if err > 0 {
@@ -351,6 +354,24 @@ func (tr *tracer) trace(s seed) Line {
 		h = math.Min(tr.hMax, h*math.Max(1, grow))
 	}
 	return ln
+}
+
+// dense appends points within a step from x to xn (directions k0 and k1
+// at its ends, length h) by cubic Hermite interpolation, so that long
+// steps still draw as smooth curves (a point every 0.4% of the window
+// diagonal at most), then xn itself.
+func (tr *tracer) dense(pts []r2.Vec, x, xn, k0, k1 r2.Vec, h float64) []r2.Vec {
+	n := min(int(math.Ceil(h/(denseSpacing*tr.diag))), 16)
+	for i := 1; i < n; i++ {
+		t := float64(i) / float64(n)
+		t2, t3 := t*t, t*t*t
+		p := r2.Scale(2*t3-3*t2+1, x)
+		p = r2.Add(p, r2.Scale(h*(t3-2*t2+t), k0))
+		p = r2.Add(p, r2.Scale(-2*t3+3*t2, xn))
+		p = r2.Add(p, r2.Scale(h*(t3-t2), k1))
+		pts = append(pts, p)
+	}
+	return append(pts, xn)
 }
 
 // boundaryCrossing returns the last point inside the domain on the segment
