@@ -33,7 +33,7 @@ func (j *job) sampled() *grid.Grid {
 // file overlays the scene.
 func contourFiles(j *job) ([]outputFile, error) {
 	lo, hi := grid.BoundaryRange(j.sol)
-	levels := grid.Levels(lo, hi, j.levels)
+	levels := j.contourLevels(lo, hi)
 	var lines []geom.LevelLine
 	if levels == nil {
 		j.warnings = append(j.warnings, fmt.Sprintf("%s holds no lines: the boundary potential does not vary (from %g to %g)", contoursName, lo, hi))

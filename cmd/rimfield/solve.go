@@ -32,7 +32,8 @@ type job struct {
 	// warnings collects what the writers of outputs noticed; they go into
 	// results.json.
 	warnings []string
-	grid     *grid.Grid // the solution on the default grid, once sampled
+	grid     *grid.Grid  // the solution on the default grid, once sampled
+	pics     *pictureJob // picture and report flags, results and pictures (images.go)
 }
 
 // artifact is an optional group of output files (contours, pictures),
@@ -57,6 +58,12 @@ Solves the scene and writes into DIR (created if needed):
   contours.geojson  --levels equipotential lines (LineStrings with "level"
                  and "unit" properties) in the scene's coordinate unit, to
                  overlay the scene
+  potential.png  the potential with equipotentials and the flow net,
+  field.png      the field strength |grad u| with its peak marked and
+  boundary.png   potential and inflow density along every boundary
+                 (not with --no-images; also as SVG with --svg)
+  report.html    with --report: inputs, results, pictures, warnings and
+                 cautions in one self-contained page
 
 Files an earlier run wrote into DIR are replaced all at once when every new
 file is complete; other files in DIR are left alone. A scene with an error
@@ -83,6 +90,7 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 	fs.BoolVar(&o.noImages, "no-images", false, "do not draw the PNG pictures")
 	fs.StringVar(&o.solver, "solver", "auto", "linear `SOLVER`: dense (direct LU, exact to rounding), fast (not available yet), or auto (dense)")
 	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing on success (errors still go to stderr)")
+	pics := addPictureFlags(fs)
 	if helped, err := cl.parse(args, stdout); helped || err != nil {
 		return err
 	}
@@ -103,11 +111,14 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
+	if err := pics.check(); err != nil {
+		return err
+	}
 	if err := checkOutputDir(o.out); err != nil {
 		return fmt.Errorf("solve: %w", err)
 	}
 
-	j := &job{scenePath: pos[0], solverKind: kind, levels: o.levels}
+	j := &job{scenePath: pos[0], solverKind: kind, levels: o.levels, pics: pics}
 	j.scene, j.mesh, err = prepare(pos[0], o.panels)
 	if err != nil {
 		return err
@@ -161,6 +172,9 @@ func resultFiles(j *job, images bool) (*results, []outputFile, error) {
 		return nil, nil, err
 	}
 	res.Warnings = append(res.Warnings, table.warnings()...)
+	if j.pics != nil {
+		j.pics.res = res
+	}
 	files := []outputFile{{boundaryName, table.write}}
 	for _, a := range artifacts {
 		if a.image && !images {

@@ -1,0 +1,273 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"encoding/xml"
+	"image/color"
+	"image/png"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// The pictures are checked by the numbers behind them in bem/grid and
+// bem/draw; here the command line's side: which files are written, at what
+// size, and that they decode and are not blank.
+
+// pictureScene is the invented weir of testdata/pictures, solved on a
+// coarse mesh to keep the tests fast.
+var pictureScene = repoPath("testdata", "pictures", "weir.geojson")
+
+func readPNG(t *testing.T, path string) (w, h, colours int) {
+	t.Helper()
+	data, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(bytes.NewReader(data))
+	if err != nil {
+		t.Fatalf("%s: not a PNG: %v", path, err)
+	}
+	b := img.Bounds()
+	seen := map[color.RGBA]bool{}
+	for y := b.Min.Y; y < b.Max.Y; y += 4 {
+		for x := b.Min.X; x < b.Max.X; x += 4 {
+			r, g, bb, a := img.At(x, y).RGBA()
+			seen[color.RGBA{uint8(r >> 8), uint8(g >> 8), uint8(bb >> 8), uint8(a >> 8)}] = true
+		}
+	}
+	return b.Dx(), b.Dy(), len(seen)
+}
+
+func wellFormedXML(t *testing.T, path string) {
+	t.Helper()
+	data, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := xml.NewDecoder(bytes.NewReader(data))
+	for {
+		_, err := d.Token()
+		if err == io.EOF {
+			return
+		}
+		if err != nil {
+			t.Fatalf("%s is not well-formed XML: %v", path, err)
+		}
+	}
+}
+
+func listedFiles(t *testing.T, dir string) []string {
+	t.Helper()
+	data, err := os.ReadFile(filepath.Join(dir, resultsName))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var r struct {
+		Files []string `json:"files"`
+	}
+	if err := json.Unmarshal(data, &r); err != nil {
+		t.Fatal(err)
+	}
+	return r.Files
+}
+
+func TestPicturesWritten(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "out")
+	_, _, err := runArgs(t, "solve", pictureScene, "-o", dir, "--panels", "300", "--image-size", "900x600", "--svg", "-q")
+	if err != nil {
+		t.Fatal(err)
+	}
+	files := strings.Join(listedFiles(t, dir), " ")
+	for _, name := range []string{"potential", "field", "boundary"} {
+		for _, ext := range []string{".png", ".svg"} {
+			if !strings.Contains(files, name+ext) {
+				t.Errorf("results.json does not list %s%s (files: %s)", name, ext, files)
+			}
+		}
+		w, h, n := readPNG(t, filepath.Join(dir, name+".png"))
+		wantH := 600
+		if name == "boundary" {
+			wantH = 700 // charts: at least 700 high
+		}
+		if w != 900 || h != wantH {
+			t.Errorf("%s.png is %d x %d, want 900 x %d", name, w, h, wantH)
+		}
+		if n < 30 {
+			t.Errorf("%s.png has %d distinct colours: blank?", name, n)
+		}
+		wellFormedXML(t, filepath.Join(dir, name+".svg"))
+	}
+	if _, err := os.Stat(filepath.Join(dir, reportName)); err == nil {
+		t.Error("report.html written without --report")
+	}
+}
+
+// --no-images writes no pictures; a second run without it into the same
+// folder adds them, and a third with --no-images removes them again (they
+// are listed in results.json and replaced as a group).
+func TestNoImages(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "out")
+	args := []string{"solve", pictureScene, "-o", dir, "--panels", "200", "-q"}
+	if _, _, err := runArgs(t, append(args, "--no-images")...); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := os.Stat(filepath.Join(dir, "potential.png")); err == nil {
+		t.Fatal("potential.png written with --no-images")
+	}
+	if _, _, err := runArgs(t, append(args, "--image-size", "400x300")...); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := os.Stat(filepath.Join(dir, "field.png")); err != nil {
+		t.Fatalf("field.png not written: %v", err)
+	}
+	if _, _, err := runArgs(t, append(args, "--no-images")...); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := os.Stat(filepath.Join(dir, "field.png")); err == nil {
+		t.Error("field.png of the earlier run left behind")
+	}
+}
+
+// --at sets the equipotentials of contours.geojson exactly.
+func TestContourLevelsAt(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "out")
+	_, _, err := runArgs(t, "solve", pictureScene, "-o", dir, "--panels", "200", "--at", "1.5, 3,4.5", "--no-images", "-q")
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, err := os.ReadFile(filepath.Join(dir, contoursName))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var fc struct {
+		Features []struct {
+			Properties struct {
+				Level float64 `json:"level"`
+				Unit  string  `json:"unit"`
+			} `json:"properties"`
+		} `json:"features"`
+	}
+	if err := json.Unmarshal(data, &fc); err != nil {
+		t.Fatal(err)
+	}
+	seen := map[float64]bool{}
+	for _, f := range fc.Features {
+		seen[f.Properties.Level] = true
+		if f.Properties.Unit != "m" {
+			t.Errorf("unit %q, want m (metres of head)", f.Properties.Unit)
+		}
+	}
+	for _, lv := range []float64{1.5, 3, 4.5} {
+		if !seen[lv] {
+			t.Errorf("no contour at %v (levels %v)", lv, seen)
+		}
+	}
+	if len(seen) != 3 {
+		t.Errorf("levels %v, want exactly 1.5, 3, 4.5", seen)
+	}
+}
+
+func TestPictureFlagErrors(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "out")
+	for _, c := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"--at", "0.1,x"}, "--at"},
+		{[]string{"--image-size", "10x10"}, "--image-size"},
+		{[]string{"--image-size", "800"}, "--image-size"},
+	} {
+		_, _, err := runArgs(t, append([]string{"solve", pictureScene, "-o", dir}, c.args...)...)
+		wantUsageError(t, err, c.want)
+		if _, err := os.Stat(dir); err == nil {
+			t.Fatalf("%v: output written despite the error", c.args)
+		}
+	}
+}
+
+// The report is one self-contained file: the pictures embedded, no outside
+// references, every boundary with its numbers, the warnings and cautions.
+func TestReport(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "out")
+	if _, _, err := runArgs(t, "solve", pictureScene, "-o", dir, "--panels", "300", "--image-size", "800x400", "--report", "-q"); err != nil {
+		t.Fatal(err)
+	}
+	data, err := os.ReadFile(filepath.Join(dir, reportName))
+	if err != nil {
+		t.Fatal(err)
+	}
+	html := string(data)
+	if n := strings.Count(html, `src="data:image/png;base64,`); n != 3 {
+		t.Errorf("%d embedded pictures, want 3", n)
+	}
+	for _, ref := range []string{`src="http`, `href="http`, `src="/`, `<link`, `<script`} {
+		if strings.Contains(html, ref) {
+			t.Errorf("report refers outside itself: %s", ref)
+		}
+	}
+	var r results
+	raw, _ := os.ReadFile(filepath.Join(dir, resultsName))
+	if err := json.Unmarshal(raw, &r); err != nil {
+		t.Fatal(err)
+	}
+	for _, b := range r.Boundaries {
+		if !strings.Contains(html, b.Name) || !strings.Contains(html, fmtNum(float64(b.Inflow))) {
+			t.Errorf("report lacks boundary %q or its inflow %s", b.Name, fmtNum(float64(b.Inflow)))
+		}
+	}
+	for _, c := range r.Cautions {
+		if !strings.Contains(html, c.Topic) {
+			t.Errorf("report lacks caution %q", c.Topic)
+		}
+	}
+	for _, w := range r.Warnings {
+		if !strings.Contains(html, htmlEscape(w)) {
+			t.Errorf("report lacks warning %q", w)
+		}
+	}
+	for _, want := range []string{"shape factor", "m^2/s", "not a substitute"} {
+		if !strings.Contains(html, want) {
+			t.Errorf("report lacks %q", want)
+		}
+	}
+	if !strings.Contains(strings.Join(r.Files, " "), reportName) {
+		t.Errorf("results.json does not list %s", reportName)
+	}
+}
+
+func htmlEscape(s string) string {
+	r := strings.NewReplacer("&", "&amp;", "<", "&lt;", ">", "&gt;", `"`, "&#34;", "'", "&#39;")
+	return r.Replace(s)
+}
+
+// The flow net of the weir: the shape factor the picture reports is the
+// discharge over k H (its definition, Cedergren, Seepage, Drainage, and
+// Flow Nets, 1989, ch. 4), checked against results.json's own inflow.
+func TestReportFlowNet(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "out")
+	if _, _, err := runArgs(t, "solve", pictureScene, "-o", dir, "--panels", "300", "--image-size", "600x400", "--report", "-q"); err != nil {
+		t.Fatal(err)
+	}
+	var r results
+	raw, _ := os.ReadFile(filepath.Join(dir, resultsName))
+	if err := json.Unmarshal(raw, &r); err != nil {
+		t.Fatal(err)
+	}
+	q := 0.0
+	for _, b := range r.Boundaries {
+		if b.Name == "upstream bed" {
+			q = float64(b.Inflow)
+		}
+	}
+	k, head := 2e-5, 6.0
+	html, _ := os.ReadFile(filepath.Join(dir, reportName))
+	want := fmtNum(q / (k * head))
+	if !strings.Contains(string(html), want) || math.IsNaN(q) {
+		t.Errorf("report does not show the shape factor q/(k H) = %s", want)
+	}
+}
