@@ -1,9 +1,6 @@
 package template
 
-import (
-	"fmt"
-	"math"
-)
+import "math"
 
 // Coaxial is a round conductor inside a round shield filled with one
 // dielectric: a closed scene. The shield is an edge along the filler's
@@ -26,17 +23,17 @@ func (c Coaxial) Bytes() ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	if err := positive(name, cm.unit, quantity{"inner radius", c.Inner}, quantity{"outer radius", c.Outer}); err != nil {
+	if err := positive(name, cm.unit, quantity{"Inner", "inner radius", c.Inner}, quantity{"Outer", "outer radius", c.Outer}); err != nil {
 		return nil, err
 	}
 	if !(c.Offset >= 0) || math.IsInf(c.Offset, 0) {
-		return nil, fmt.Errorf("template: %s: the offset must be a length of 0 or more in %s, got %g", name, cm.unit, c.Offset)
+		return nil, errorf(name, "Offset", "the offset must be a length of 0 or more in %s, got %g", cm.unit, c.Offset)
 	}
 	if c.Inner+c.Offset >= c.Outer {
-		return nil, fmt.Errorf("template: %s: the inner conductor (radius %g %s, offset %g %s) reaches the shield (radius %g %s); make the outer radius larger or the inner radius or offset smaller",
-			name, c.Inner, cm.unit, c.Offset, cm.unit, c.Outer, cm.unit)
+		return nil, errorf(name, "Outer", "the inner conductor (radius %g %s, offset %g %s) reaches the shield (radius %g %s); make the outer radius larger or the inner radius or offset smaller",
+			c.Inner, cm.unit, c.Offset, cm.unit, c.Outer, cm.unit)
 	}
-	if err := finite(name, quantity{"voltage", c.Voltage}); err != nil {
+	if err := finite(name, quantity{"Voltage", "voltage", c.Voltage}); err != nil {
 		return nil, err
 	}
 	shield := circle(0, 0, c.Outer, cm.sides)
@@ -69,13 +66,13 @@ func (t TwoWire) Bytes() ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	if err := positive(name, cm.unit, quantity{"radius", t.Radius}, quantity{"spacing", t.Spacing}); err != nil {
+	if err := positive(name, cm.unit, quantity{"Radius", "radius", t.Radius}, quantity{"Spacing", "spacing", t.Spacing}); err != nil {
 		return nil, err
 	}
 	if t.Spacing <= 2*t.Radius {
-		return nil, fmt.Errorf("template: %s: wires of radius %g %s touch at a spacing of %g %s; make the spacing more than twice the radius", name, t.Radius, cm.unit, t.Spacing, cm.unit)
+		return nil, errorf(name, "Spacing", "wires of radius %g %s touch at a spacing of %g %s; make the spacing more than twice the radius", t.Radius, cm.unit, t.Spacing, cm.unit)
 	}
-	if err := finite(name, quantity{"voltage", t.Voltage}); err != nil {
+	if err := finite(name, quantity{"Voltage", "voltage", t.Voltage}); err != nil {
 		return nil, err
 	}
 	return encode(name, sceneFile{
@@ -105,13 +102,13 @@ func (w WireOverGround) Bytes() ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	if err := positive(name, cm.unit, quantity{"radius", w.Radius}, quantity{"height", w.Height}); err != nil {
+	if err := positive(name, cm.unit, quantity{"Radius", "radius", w.Radius}, quantity{"Height", "height", w.Height}); err != nil {
 		return nil, err
 	}
 	if w.Height <= w.Radius {
-		return nil, fmt.Errorf("template: %s: a wire of radius %g %s at a height of %g %s touches the ground plane; make the height more than the radius", name, w.Radius, cm.unit, w.Height, cm.unit)
+		return nil, errorf(name, "Height", "a wire of radius %g %s at a height of %g %s touches the ground plane; make the height more than the radius", w.Radius, cm.unit, w.Height, cm.unit)
 	}
-	if err := finite(name, quantity{"voltage", w.Voltage}); err != nil {
+	if err := finite(name, quantity{"Voltage", "voltage", w.Voltage}); err != nil {
 		return nil, err
 	}
 	return encode(name, sceneFile{
@@ -141,17 +138,17 @@ func (s ShieldedPair) Bytes() ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	if err := positive(name, cm.unit, quantity{"radius", s.Radius}, quantity{"spacing", s.Spacing}, quantity{"shield radius", s.Shield}); err != nil {
+	if err := positive(name, cm.unit, quantity{"Radius", "radius", s.Radius}, quantity{"Spacing", "spacing", s.Spacing}, quantity{"Shield", "shield radius", s.Shield}); err != nil {
 		return nil, err
 	}
 	if s.Spacing <= 2*s.Radius {
-		return nil, fmt.Errorf("template: %s: wires of radius %g %s touch at a spacing of %g %s; make the spacing more than twice the radius", name, s.Radius, cm.unit, s.Spacing, cm.unit)
+		return nil, errorf(name, "Spacing", "wires of radius %g %s touch at a spacing of %g %s; make the spacing more than twice the radius", s.Radius, cm.unit, s.Spacing, cm.unit)
 	}
 	if s.Spacing/2+s.Radius >= s.Shield {
-		return nil, fmt.Errorf("template: %s: the wires (radius %g %s, spacing %g %s) reach the shield (radius %g %s); make the shield radius larger than half the spacing plus the radius",
-			name, s.Radius, cm.unit, s.Spacing, cm.unit, s.Shield, cm.unit)
+		return nil, errorf(name, "Shield", "the wires (radius %g %s, spacing %g %s) reach the shield (radius %g %s); make the shield radius larger than half the spacing plus the radius",
+			s.Radius, cm.unit, s.Spacing, cm.unit, s.Shield, cm.unit)
 	}
-	if err := finite(name, quantity{"voltage", s.Voltage}); err != nil {
+	if err := finite(name, quantity{"Voltage", "voltage", s.Voltage}); err != nil {
 		return nil, err
 	}
 	shield := circle(0, 0, s.Shield, cm.sides)

@@ -3,12 +3,30 @@ package template
 import (
 	"bytes"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"math"
 	"strconv"
 
 	"github.com/rimfield/rimfield/geom"
 )
+
+// Error is a template's complaint about its parameters.
+type Error struct {
+	Template string // "coaxial"
+	// Param is the parameter at fault, named as the template's struct
+	// field ("Inner"), so that a caller can name its own flag or key.
+	Param string
+	Msg   string // what is wrong and the fix
+}
+
+// Error formats the error as "template: <template>: <Msg>".
+func (e *Error) Error() string { return "template: " + e.Template + ": " + e.Msg }
+
+// errorf returns an *Error.
+func errorf(tpl, param, format string, args ...any) *Error {
+	return &Error{Template: tpl, Param: param, Msg: fmt.Sprintf(format, args...)}
+}
 
 // DefaultSides is the number of polygon vertices per circle when a template
 // does not say.
@@ -139,28 +157,30 @@ func resolve(name, unit string, sides int, epsr *float64) (common, error) {
 		c.sides = DefaultSides
 	}
 	if c.sides < minSides {
-		return c, fmt.Errorf("template: %s: %d vertices per circle is too few: a circle needs at least %d (%d recommended)", name, sides, minSides, DefaultSides)
+		return c, errorf(name, "Sides", "%d vertices per circle is too few: a circle needs at least %d (%d recommended)", sides, minSides, DefaultSides)
 	}
 	if *epsr == 0 {
 		*epsr = 1
 	}
 	if !(*epsr >= 1) || math.IsInf(*epsr, 0) {
-		return c, fmt.Errorf("template: %s: relative permittivity %g must be a finite number of at least 1", name, *epsr)
+		return c, errorf(name, "Permittivity", "relative permittivity %g must be a finite number of at least 1", *epsr)
 	}
 	return c, nil
 }
 
-// quantity is a named number to check: a dimension or a potential.
+// quantity is a named number to check: a dimension or a potential, with
+// the struct field it comes from.
 type quantity struct {
-	what string
-	v    float64
+	param string
+	what  string
+	v     float64
 }
 
 // positive checks that each dimension is a positive finite length.
 func positive(name, unit string, dims ...quantity) error {
 	for _, d := range dims {
 		if !(d.v > 0) || math.IsInf(d.v, 0) {
-			return fmt.Errorf("template: %s: the %s must be a positive length in %s, got %g", name, d.what, unit, d.v)
+			return errorf(name, d.param, "the %s must be a positive length in %s, got %g", d.what, unit, d.v)
 		}
 	}
 	return nil
@@ -170,7 +190,7 @@ func positive(name, unit string, dims ...quantity) error {
 func finite(name string, vs ...quantity) error {
 	for _, v := range vs {
 		if math.IsNaN(v.v) || math.IsInf(v.v, 0) {
-			return fmt.Errorf("template: %s: the %s must be a finite number of volts, got %g", name, v.what, v.v)
+			return errorf(name, v.param, "the %s must be a finite number of volts, got %g", v.what, v.v)
 		}
 	}
 	return nil
@@ -202,6 +222,10 @@ func encode(name string, f sceneFile) ([]byte, error) {
 	b.WriteString("\n ]}\n")
 	sc, err := geom.Read(bytes.NewReader(b.Bytes()))
 	if err != nil {
+		var ge *geom.Error
+		if errors.As(err, &ge) && ge.Member == "problem.unit" {
+			return nil, errorf(name, "Unit", "%s", ge.Msg)
+		}
 		return nil, fmt.Errorf("template: %s: %w", name, err)
 	}
 	if _, err := sc.Layout(); err != nil {

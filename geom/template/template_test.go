@@ -2,6 +2,7 @@ package template_test
 
 import (
 	"bytes"
+	"errors"
 	"math"
 	"strings"
 	"testing"
@@ -149,25 +150,33 @@ func TestShieldedPair(t *testing.T) {
 
 func TestErrors(t *testing.T) {
 	// Each bad request gets one error naming the template and what to fix.
+	// The error is an *Error naming the parameter at fault.
 	cases := []struct {
-		t    interface{ Bytes() ([]byte, error) }
-		want []string
+		t     interface{ Bytes() ([]byte, error) }
+		param string
+		want  []string
 	}{
-		{template.Coaxial{Inner: 2, Outer: 3, Offset: 1}, []string{"template: coaxial:", "reaches the shield", "outer radius larger"}},
-		{template.Coaxial{Inner: -1, Outer: 3}, []string{"inner radius", "positive length in mm"}},
-		{template.Coaxial{Inner: 1, Outer: 3, Sides: 8}, []string{"8 vertices", "at least 16"}},
-		{template.Coaxial{Inner: 1, Outer: 3, Unit: "furlong"}, []string{"template: coaxial:", "furlong"}},
-		{template.Coaxial{Inner: 1, Outer: 3, Permittivity: 0.5}, []string{"relative permittivity 0.5"}},
-		{template.TwoWire{Radius: 1, Spacing: 2}, []string{"template: two-wire:", "touch", "more than twice the radius"}},
-		{template.WireOverGround{Radius: 1, Height: 1}, []string{"touches the ground plane"}},
-		{template.WireOverGround{Radius: 1, Height: 2, Voltage: math.NaN()}, []string{"voltage", "finite"}},
-		{template.ShieldedPair{Radius: 1, Spacing: 4, Shield: 2.5}, []string{"template: shielded-pair:", "reach the shield"}},
+		{template.Coaxial{Inner: 2, Outer: 3, Offset: 1}, "Outer", []string{"template: coaxial:", "reaches the shield", "outer radius larger"}},
+		{template.Coaxial{Inner: -1, Outer: 3}, "Inner", []string{"inner radius", "positive length in mm"}},
+		{template.Coaxial{Inner: 1, Outer: 3, Offset: -1}, "Offset", []string{"offset", "0 or more"}},
+		{template.Coaxial{Inner: 1, Outer: 3, Sides: 8}, "Sides", []string{"8 vertices", "at least 16"}},
+		{template.Coaxial{Inner: 1, Outer: 3, Unit: "furlong"}, "Unit", []string{"template: coaxial:", "furlong", `"mm"`}},
+		{template.Coaxial{Inner: 1, Outer: 3, Permittivity: 0.5}, "Permittivity", []string{"relative permittivity 0.5"}},
+		{template.TwoWire{Radius: 1, Spacing: 2}, "Spacing", []string{"template: two-wire:", "touch", "more than twice the radius"}},
+		{template.WireOverGround{Radius: 1, Height: 1}, "Height", []string{"touches the ground plane"}},
+		{template.WireOverGround{Radius: 1, Height: 2, Voltage: math.NaN()}, "Voltage", []string{"voltage", "finite"}},
+		{template.ShieldedPair{Radius: 1, Spacing: 4, Shield: 2.5}, "Shield", []string{"template: shielded-pair:", "reach the shield"}},
+		{template.ShieldedPair{Radius: 1, Spacing: 4, Shield: math.Inf(1)}, "Shield", []string{"shield radius"}},
 	}
 	for _, c := range cases {
 		_, err := c.t.Bytes()
-		if err == nil {
-			t.Errorf("%+v: no error", c.t)
+		var te *template.Error
+		if !errors.As(err, &te) {
+			t.Errorf("%+v: error %v, want a *template.Error", c.t, err)
 			continue
+		}
+		if te.Param != c.param {
+			t.Errorf("%+v: parameter %q, want %q", c.t, te.Param, c.param)
 		}
 		for _, w := range c.want {
 			if !strings.Contains(err.Error(), w) {
