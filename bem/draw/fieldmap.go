@@ -424,8 +424,8 @@ func (m *Map) drawLabels(c canvas, f frame, st style) {
 		haloText(c, e.Name, at.X, at.Y, st.small, black, 0.5, 0.5)
 	}
 	if g := sc.Problem.Ground; g != nil && sc.Problem.Open && g.Y > f.win.Min.Y && g.Y < f.win.Max.Y {
-		p := f.px(r2.Vec{X: f.win.Min.X, Y: g.Y})
-		haloText(c, "ground plane", p.X+st.font*0.5, p.Y+st.font*1.1, st.small, ink, 0, 0.5)
+		p := f.px(r2.Vec{X: f.win.Max.X, Y: g.Y})
+		haloText(c, "ground plane (0)", p.X-st.font*0.5, p.Y+st.font*0.9, st.small, ink, 1, 0.5)
 	}
 }
 

@@ -24,11 +24,15 @@ func Levels(lo, hi float64, k int) []float64 {
 }
 
 // BoundaryRange returns the lowest and highest potential on the boundary
-// panels of sol (interfaces between regions excluded). In a closed scene and
+// panels of sol (interfaces between regions excluded) and on the grounded
+// plane of an open scene (potential 0), if it has one. In a closed scene and
 // in an open one with no net inflow these bound the potential everywhere
 // (maximum principle).
 func BoundaryRange(sol *bem.Solution) (lo, hi float64) {
 	lo, hi = math.Inf(1), math.Inf(-1)
+	if lay := sol.Mesh.Layout; lay != nil && lay.Open && lay.Ground != nil {
+		lo, hi = 0, 0
+	}
 	for j, p := range sol.Mesh.Panels {
 		if p.Interface() {
 			continue

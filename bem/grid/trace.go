@@ -39,8 +39,8 @@ type Line struct {
 	// Source is the owner (index into Layout.Owners) the line starts on.
 	Source int
 	// End is the owner of the boundary the line ends on; -1 when it ends at
-	// an insulated wall without owner, the window's edge, a stagnation
-	// point or the step limit.
+	// an insulated wall without owner, the grounded plane, the window's
+	// edge, a stagnation point or the step limit.
 	End int
 	// Boundary reports whether the line ends on the boundary of the domain
 	// (rather than at the window's edge, a stagnation point or the step limit).
@@ -410,10 +410,14 @@ func (tr *tracer) clip(x, y r2.Vec) r2.Vec {
 	return r2.Add(x, r2.Scale(math.Max(0, t), d))
 }
 
-// ownerNear returns the owner of the panel nearest to p (-1 for none).
+// ownerNear returns the owner of the panel nearest to p, or -1 for none
+// and for the grounded plane when that is nearer.
 func (tr *tracer) ownerNear(p r2.Vec) int {
-	k, _ := tr.segs.nearest(p)
+	k, d := tr.segs.nearest(p)
 	if k < 0 {
+		return -1
+	}
+	if lay := tr.sol.Mesh.Layout; lay.Open && lay.Ground != nil && math.Abs(p.Y-lay.Ground.Y) < d {
 		return -1
 	}
 	return tr.sol.Mesh.Panels[k].Owner

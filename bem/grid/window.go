@@ -34,13 +34,17 @@ const (
 	closedMargin = 0.04 // closed scenes: margin around the boundary, of the larger extent
 	openFactor   = 1.5  // open scenes: window over the bodies' extent
 	minAspect    = 0.3  // no side shorter than minAspect times the other
+	// open scenes: the field spreads in every direction, so the window is
+	// nearer square
+	minAspectOpen = 0.75
 )
 
 // Auto returns the default window for a mesh: the bounding box of the
 // boundary with a margin of 4% of its larger side in a closed scene; in an
 // open scene a window 1.5 times the bodies' extent about their centre (down
 // to the grounded plane, if any). Neither side is shorter than 0.3 times the
-// other, so that a thin plate still gets a picture with room around it.
+// other (0.75 in an open scene), so that a thin plate still gets a picture
+// with room around it.
 func Auto(m *mesh.Mesh) Window {
 	lo, hi := m.Bounds()
 	lay := m.Layout
@@ -56,8 +60,12 @@ func Auto(m *mesh.Mesh) Window {
 	if !(big > 0) {
 		big = 1
 	}
-	ext.X = math.Max(ext.X, minAspect*big)
-	ext.Y = math.Max(ext.Y, minAspect*big)
+	aspect := minAspect
+	if open {
+		aspect = minAspectOpen
+	}
+	ext.X = math.Max(ext.X, aspect*big)
+	ext.Y = math.Max(ext.Y, aspect*big)
 	c := r2.Scale(0.5, r2.Add(lo, hi))
 	var half r2.Vec
 	if open {
