@@ -144,7 +144,7 @@ func (m *Map) draw(c canvas, W, H float64) {
 	st.title = 1.3 * st.font
 	st.line = math.Max(1, u/700)
 
-	lo, hi, over := m.colourRange()
+	lo, hi, over, under := m.colourRange()
 	unit, scale := "m", 1.0
 	if m.Scene != nil && m.Scene.Problem.Scale > 0 {
 		scale = m.Scene.Problem.Scale
@@ -189,7 +189,7 @@ func (m *Map) draw(c canvas, W, H float64) {
 	for _, l := range m.Contours {
 		levels = append(levels, l.Level)
 	}
-	drawColourBar(c, m.colors(), f.x0+f.pw+st.font*1.2, f.y0, barW, f.ph, lo, hi, over, levels, m.Label, st)
+	drawColourBar(c, m.colors(), f.x0+f.pw+st.font*1.2, f.y0, barW, f.ph, lo, hi, over, under, levels, m.Label, st)
 
 	// Title and subtitle, left-aligned with the plot.
 	y := shift + st.font*0.8 + st.title
@@ -209,8 +209,8 @@ func (m *Map) colors() Colormap {
 }
 
 // colourRange returns the ends of the colour map and whether values rise
-// above the top end.
-func (m *Map) colourRange() (lo, hi float64, over bool) {
+// above the top end or fall below the bottom end.
+func (m *Map) colourRange() (lo, hi float64, over, under bool) {
 	var fin []float64
 	for _, v := range m.Values {
 		if !math.IsNaN(v) && !math.IsInf(v, 0) {
@@ -220,7 +220,7 @@ func (m *Map) colourRange() (lo, hi float64, over bool) {
 	lo, hi = m.Lo, m.Hi
 	if !(hi > lo) {
 		if len(fin) == 0 {
-			return 0, 1, false
+			return 0, 1, false, false
 		}
 		sort.Float64s(fin)
 		lo, hi = fin[0], fin[len(fin)-1]
@@ -234,13 +234,12 @@ func (m *Map) colourRange() (lo, hi float64, over bool) {
 			hi = lo + math.Max(1, math.Abs(lo))*1e-6
 		}
 	}
+	tol := 1e-12 * (hi - lo)
 	for _, v := range fin {
-		if v > hi*(1+1e-12) {
-			over = true
-			break
-		}
+		over = over || v > hi+tol
+		under = under || v < lo-tol
 	}
-	return lo, hi, over
+	return lo, hi, over, under
 }
 
 // drawField colours every pixel of the plot from the bilinear interpolant
@@ -641,11 +640,15 @@ func maxLabelWidth(c canvas, lo, hi, size float64) float64 {
 
 // drawColourBar draws the colour map from lo (bottom) to hi (top) with
 // ticks, the contour levels as thin marks and the label, rotated, at its
-// right; an arrow on top when values rise above hi.
-func drawColourBar(c canvas, cm Colormap, x, y, w, h, lo, hi float64, over bool, levels []float64, label string, st style) {
+// right; an arrow on top when values rise above hi, at the bottom when
+// they fall below lo.
+func drawColourBar(c canvas, cm Colormap, x, y, w, h, lo, hi float64, over, under bool, levels []float64, label string, st style) {
 	if over {
 		// Leave room for the arrow.
 		y += w
+		h -= w
+	}
+	if under {
 		h -= w
 	}
 	n := max(int(h), 2)
@@ -661,6 +664,11 @@ func drawColourBar(c canvas, cm Colormap, x, y, w, h, lo, hi float64, over bool,
 	if over {
 		c.fill(cm.At(1), []r2.Vec{{X: x, Y: y}, {X: x + w, Y: y}, {X: x + w/2, Y: y - w}})
 		c.stroke(ink, st.line, nil, true, []r2.Vec{{X: x, Y: y}, {X: x + w, Y: y}, {X: x + w/2, Y: y - w}})
+	}
+	if under {
+		b := y + h
+		c.fill(cm.At(0), []r2.Vec{{X: x, Y: b}, {X: x + w, Y: b}, {X: x + w/2, Y: b + w}})
+		c.stroke(ink, st.line, nil, true, []r2.Vec{{X: x, Y: b}, {X: x + w, Y: b}, {X: x + w/2, Y: b + w}})
 	}
 	c.stroke(ink, st.line, nil, true, []r2.Vec{{X: x, Y: y}, {X: x + w, Y: y}, {X: x + w, Y: y + h}, {X: x, Y: y + h}})
 	at := func(v float64) float64 { return y + h - (v-lo)/(hi-lo)*h }

@@ -94,6 +94,8 @@ const (
 	// endStep: below this step (fraction of the window diagonal) a line
 	// that steps out of the domain ends on the boundary.
 	endStep = 1e-4
+	// floatingLines: lines drawn when only floating bodies emit flux.
+	floatingLines = 24
 	// uniformTol: a potential range below uniformTol times the largest
 	// potential is taken as no potential difference (rounding).
 	uniformTol = 1e-9
@@ -114,7 +116,12 @@ const (
 // stagnation point or after a step limit; it crosses interfaces between
 // regions. Seeds sit at the middle of each flux increment: cumulative
 // inflow (m+1/2)*Step for every whole channel, m = 0, 1, ... while
-// (m+1)*Step <= Inflow.
+// (m+1)*Step <= the total inflow. Sources are all bodies and edges where
+// flux enters the domain, floating ones included (in electrostatics, lines
+// start on every positive surface charge); the flow net's numbers count the
+// fixed-potential and flux boundaries only. When only floating bodies emit
+// flux (a charged conductor alone), 24 lines are drawn and the flow net's
+// numbers are zero.
 //
 // drops is the number of equal potential drops between the lowest and
 // highest boundary potential (k equipotentials from Levels give k+1). Trace
@@ -135,29 +142,41 @@ func Trace(sol *bem.Solution, w Window, drops int, o TraceOptions) *FlowNet {
 	net := &FlowNet{Drops: max(drops, 1), Head: hi - lo}
 	net.Drop = net.Head / float64(net.Drops)
 	src := sources(sol)
-	if len(src) == 0 || !(net.Head > uniformTol*math.Max(math.Abs(lo), math.Abs(hi))) {
+	m := sol.Mesh
+	fixed, all := 0.0, 0.0 // inflow through fixed-potential and flux boundaries, and through all sources
+	for _, j := range src {
+		q := sol.F[j] * m.Panels[j].Length()
+		all += q
+		if k := m.Layout.Owners[m.Panels[j].Owner].Cond.Kind; k == geom.Potential || k == geom.Flux {
+			fixed += q
+		}
+	}
+	switch {
+	case fixed > 0 && net.Head > uniformTol*math.Max(math.Abs(lo), math.Abs(hi)):
+		net.Inflow = fixed
+		mat := m.Layout.Regions[m.Panels[src[0]].Left].Material
+		net.Conductivity = math.Sqrt(mat.Kx * mat.Ky)
+		square := net.Conductivity * net.Drop
+		net.Channels = net.Inflow / square
+		net.ShapeFactor = net.Channels / float64(net.Drops)
+		net.Step, net.Square = square, true
+		if n := net.Channels; n < float64(o.MinLines) {
+			net.Step = square / math.Ceil(float64(o.MinLines)/n)
+			net.Square = false
+		} else if n > float64(o.MaxLines) {
+			net.Step = square * math.Ceil(n/float64(o.MaxLines))
+			net.Square = false
+		}
+	case fixed == 0 && all > 0:
+		// Only floating bodies emit flux (a charged conductor on its own):
+		// field lines without a flow net.
+		net.Step = all / float64(floatingLines)
+	default:
 		net.Head, net.Drop = 0, 0
 		return net
 	}
-	m := sol.Mesh
-	for _, j := range src {
-		net.Inflow += sol.F[j] * m.Panels[j].Length()
-	}
-	mat := m.Layout.Regions[m.Panels[src[0]].Left].Material
-	net.Conductivity = math.Sqrt(mat.Kx * mat.Ky)
-	square := net.Conductivity * net.Drop
-	net.Channels = net.Inflow / square
-	net.ShapeFactor = net.Channels / float64(net.Drops)
-	net.Step, net.Square = square, true
-	if n := net.Channels; n < float64(o.MinLines) {
-		net.Step = square / math.Ceil(float64(o.MinLines)/n)
-		net.Square = false
-	} else if n > float64(o.MaxLines) {
-		net.Step = square * math.Ceil(n/float64(o.MaxLines))
-		net.Square = false
-	}
 
-	seeds := placeSeeds(sol, src, net.Step, net.Inflow)
+	seeds := placeSeeds(sol, src, net.Step, all)
 	tr := newTracer(sol, w, o.Tol)
 	net.Lines = make([]Line, len(seeds))
 	workers := o.Workers
@@ -184,15 +203,13 @@ func Trace(sol *bem.Solution, w Window, drops int, o TraceOptions) *FlowNet {
 }
 
 // sources returns the panels where flux enters the domain through a body
-// or edge with a fixed potential or flux, ordered by owner and arc length.
+// or edge (not an interface or an unowned wall), ordered by owner and arc
+// length.
 func sources(sol *bem.Solution) []int {
 	m := sol.Mesh
 	var out []int
 	for j, p := range m.Panels {
 		if p.Interface() || p.Owner < 0 || !(sol.F[j] > 0) {
-			continue
-		}
-		if k := m.Layout.Owners[p.Owner].Cond.Kind; k != geom.Potential && k != geom.Flux {
 			continue
 		}
 		out = append(out, j)

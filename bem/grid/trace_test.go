@@ -240,3 +240,44 @@ func TestTraceWireOverGround(t *testing.T) {
 		t.Errorf("none of %d lines reaches the plane", len(net.Lines))
 	}
 }
+
+// A lone charged conductor (floating, net inflow Q) of circular section in
+// open space carries a uniform surface charge (any electrostatics text, e.g.
+// Smythe 1968, ch. 4: the circle is an equipotential of a line charge), so
+// lines seeded at equal flux leave at equal angles and run radially to the
+// window. There is no potential difference, hence no flow-net numbers.
+// Tolerance 1e-3 rad on the angles: a 256-gon's panel subtends 0.025 rad,
+// and the seed's position within a panel is exact for its constant flux.
+func TestTraceFloatingOnly(t *testing.T) {
+	sc := &geom.Scene{
+		Problem: geom.Problem{Physics: geom.Laplace, Unit: "m", Scale: 1, Open: true, Background: gmat(1, 1)},
+		Bodies: []geom.Body{{Name: "charged", Polygons: []geom.Polygon{{circle(r2.Vec{}, 1, 256)}},
+			Cond: geom.Condition{Kind: geom.Floating, NetInflow: 2}}},
+	}
+	sol := solve(t, sc, mesh.Options{})
+	net := Trace(sol, Auto(sol.Mesh), 6, TraceOptions{})
+	if net.Channels != 0 || net.ShapeFactor != 0 {
+		t.Errorf("channels %v, shape factor %v without a potential difference", net.Channels, net.ShapeFactor)
+	}
+	if len(net.Lines) != 24 {
+		t.Fatalf("%d lines, want 24", len(net.Lines))
+	}
+	var angles []float64
+	for _, l := range net.Lines {
+		if l.Boundary {
+			t.Errorf("line ends on the boundary at %v", l.Points[len(l.Points)-1])
+		}
+		s, e := l.Points[0], l.Points[len(l.Points)-1]
+		a0, a1 := math.Atan2(s.Y, s.X), math.Atan2(e.Y, e.X)
+		if d := math.Remainder(a1-a0, 2*math.Pi); math.Abs(d) > 1e-3 {
+			t.Errorf("line from angle %.4f ends at angle %.4f: not radial", a0, a1)
+		}
+		angles = append(angles, a0)
+	}
+	sort.Float64s(angles)
+	for i := 1; i < len(angles); i++ {
+		if d := angles[i] - angles[i-1]; math.Abs(d-2*math.Pi/24) > 1e-3 {
+			t.Errorf("seeds %d and %d are %.5f rad apart, want %.5f", i-1, i, d, 2*math.Pi/24)
+		}
+	}
+}

@@ -253,10 +253,26 @@ func headline(j *job) string {
 			best, bestV = i, o.Cond.Value
 		}
 	}
+	owners := j.sol.Owners()
 	if best < 0 {
-		return name
+		// No fixed potential: the floating body with the largest net inflow.
+		f := -1
+		for i, o := range j.mesh.Layout.Owners {
+			if o.Cond.Kind == geom.Floating && (f < 0 || math.Abs(o.Cond.NetInflow) > math.Abs(j.mesh.Layout.Owners[f].Cond.NetInflow)) {
+				f = i
+			}
+		}
+		if f < 0 || f >= len(j.sol.Floating) {
+			return name
+		}
+		what := "net inflow"
+		if sc.Problem.Physics == geom.Electrostatic {
+			what = "charge"
+		}
+		return fmt.Sprintf("%s: %s %s %s on %q, floating at %s %s", name, what, fmtNum(owners[f].Inflow), units.Inflow,
+			owners[f].Name, fmtNum(j.sol.Floating[f]), units.Potential)
 	}
-	res := j.sol.Owners()[best]
+	res := owners[best]
 	switch sc.Problem.Physics {
 	case geom.Electrostatic:
 		return fmt.Sprintf("%s: charge %s %s on %q (%s V)", name, fmtNum(res.Inflow), units.Inflow, res.Name, fmtNum(bestV))
