@@ -8,10 +8,12 @@ import (
 	"gonum.org/v1/gonum/spatial/r2"
 )
 
-// straightTol is how far from the critical opening a corner must be to
-// count as singular: a polygon approximating a circle turns by a few tenths
-// of a degree per vertex and is smooth for every practical purpose.
-const straightTol = 10 * math.Pi / 180
+// singularLambda: a vertex counts as singular when its field exponent
+// lambda - 1 is below -0.05 (lambda < 0.95). A homogeneous conductor corner
+// is then sharper than about 10 degrees past flat (pi/beta < 0.95); a
+// polygon approximating a circle turns by a few tenths of a degree per
+// vertex and is smooth for every practical purpose.
+const singularLambda = 0.95
 
 // Corner is a vertex of a conductor's surface where the field is infinite
 // in theory.
@@ -19,9 +21,8 @@ type Corner struct {
 	At       r2.Vec // metres
 	Owner    int    // the conductor, index into Layout.Owners
 	Boundary string // its name
-	// Region is the region on the field side next to the vertex (the Left
-	// of the conductor's panel that ends or starts there), index into
-	// Layout.Regions.
+	// Region is the region on the field side next to the conductor's
+	// panel at the vertex, index into Layout.Regions.
 	Region int
 	// Opening is the field-side opening angle beta in radians (between
 	// pi and 2 pi at a conductor's outer corner, 2 pi at a thin edge).
@@ -29,9 +30,15 @@ type Corner struct {
 	// Mixed is true where the conductor ends on an insulated boundary
 	// (fixed potential meets zero flux) rather than at a corner of its own.
 	Mixed bool
-	// Exponent p < 0 of the field near the vertex, |E| ~ A r^p:
-	// p = pi/beta - 1 at a corner, pi/(2 beta) - 1 where the conductor
-	// meets an insulated boundary.
+	// Junction is true where an interface between two dielectrics meets the
+	// conductor at the vertex (a triple junction): the exponent then
+	// depends on the permittivities and the angles of the sectors, and
+	// rounding the conductor does not remove the singularity.
+	Junction bool
+	// Exponent p < 0 of the field near the vertex, |E| ~ A r^p: p = lambda
+	// - 1 with lambda from the separable solution in the wedge (see
+	// wedgeExponent): pi/beta - 1 at a corner in one dielectric,
+	// pi/(2 beta) - 1 where the conductor meets an insulated boundary.
 	Exponent float64
 	// Coefficient A (V m^(-1-p)) fitted to the panels of the conductor near
 	// the vertex; NaN when too few panels lie close enough to fit it.
@@ -58,48 +65,65 @@ const arcFactor = 1.25
 // the tip matches A r^p peaks at A (|p| rho)^p (see the package
 // documentation); a circular arc peaks up to arcFactor higher, so
 // rho = (target / (arcFactor A))^(1/p) / |p|. It returns 0 when the
-// coefficient is unknown or target is not positive. The estimate holds for
-// radii well below the conductor's size.
+// coefficient is unknown, target is not positive, or the corner is a
+// junction with a dielectric interface (which rounding does not cure). The
+// estimate holds for radii well below the conductor's size.
 func (c Corner) RoundingRadius(target float64) float64 {
-	if !(target > 0) || !(c.Coefficient > 0) || !(c.Exponent < 0) {
+	if c.Junction || !(target > 0) || !(c.Coefficient > 0) || !(c.Exponent < 0) {
 		return 0
 	}
 	return math.Pow(target/(arcFactor*c.Coefficient), 1/c.Exponent) / -c.Exponent
 }
 
-// Corners returns the singular vertices of the conductors' surfaces: where
-// two panels of conductors meet with a field-side opening beta above pi,
-// or a conductor meets an insulated boundary with beta above pi/2 (field
-// r^(pi/(2 beta) - 1)); in both cases beyond a margin of 10 degrees. The
-// opening is taken over the whole field side, across any dielectric
-// interface that starts at the vertex; the exponent is then the one of a
-// uniform dielectric, an approximation.
+// Corners returns the singular vertices of the conductors' surfaces. At
+// every vertex where a conductor's panel meets the next boundary panel
+// around the field side (another conductor panel, or an insulated or flux
+// boundary), the field side is split into sectors by the dielectric
+// interfaces that leave the vertex, and the field exponent follows from
+// the separable solution across them (wedgeExponent): singular when below
+// -0.05. Without interfaces that is pi/beta - 1 (conductor on both sides)
+// or pi/(2 beta) - 1 (conductor meets an insulated boundary), beta the
+// field-side opening. Anisotropic materials enter with sqrt(kx ky), an
+// approximation.
 func (f *Fields) Corners() []Corner {
 	m := f.Sol.Mesh
+	lay := m.Layout
 	// Boundary panels by start vertex, to find what follows a panel
-	// around the domain.
+	// around the domain; interface panels by either end.
 	starts := map[r2.Vec][]int{}
+	joints := map[r2.Vec][]int{}
 	for k, p := range m.Panels {
-		if !p.Interface() {
+		if p.Interface() {
+			joints[p.A] = append(joints[p.A], k)
+			joints[p.B] = append(joints[p.B], k)
+		} else {
 			starts[p.A] = append(starts[p.A], k)
 		}
+	}
+	// cw returns the clockwise angle in (0, 2 pi] from back to d.
+	cw := func(d, back r2.Vec) float64 {
+		a := math.Atan2(r2.Cross(d, back), r2.Dot(d, back))
+		if a <= 0 {
+			a += 2 * math.Pi
+		}
+		return a
+	}
+	eps := func(reg int) float64 {
+		k := lay.Regions[reg].Material
+		return math.Sqrt(k.Kx * k.Ky)
 	}
 	var out []Corner
 	for _, p := range m.Panels {
 		if p.Interface() {
 			continue
 		}
-		// The next boundary panel clockwise from the way back along j:
+		// The next boundary panel clockwise from the way back along p:
 		// the one leaving the vertex with the smallest opening.
+		v := p.B
 		back := r2.Scale(-1, p.Tangent())
 		k, beta := -1, 0.0
-		for _, c := range starts[p.B] {
-			d := m.Panels[c].Tangent()
-			a := math.Atan2(r2.Cross(d, back), r2.Dot(d, back))
-			if a <= 0 {
-				a += 2 * math.Pi
-			}
-			if k < 0 || a < beta {
+		for _, c := range starts[v] {
+			if a := cw(m.Panels[c].Tangent(), back); k < 0 || a < beta {
 				k, beta = c, a
 			}
 		}
@@ -107,32 +131,69 @@ func (f *Fields) Corners() []Corner {
 			continue
 		}
 		q := m.Panels[k]
-		cj, ck := conductor(p), conductor(q)
-		var c Corner
-		switch {
-		case cj && ck:
-			if beta <= math.Pi+straightTol {
-				continue
-			}
-			c = Corner{Opening: beta, Exponent: math.Pi/beta - 1}
-		case cj || ck:
-			if beta <= math.Pi/2+straightTol {
-				continue
-			}
-			c = Corner{Opening: beta, Mixed: true, Exponent: math.Pi/(2*beta) - 1}
-		default:
+		cp, cq := conductor(p), conductor(q)
+		if !cp && !cq {
 			continue
 		}
-		c.At = p.B
+		// Sectors clockwise from p to q, split by the interfaces leaving v.
+		type ray struct {
+			phi         float64
+			left, right int // regions counter-clockwise and clockwise of the ray
+		}
+		var rays []ray
+		for _, c := range joints[v] {
+			ip := m.Panels[c]
+			d, ccwSide, cwSide := ip.Tangent(), ip.Left, ip.Right
+			if ip.B == v {
+				d, ccwSide, cwSide = r2.Scale(-1, d), ip.Right, ip.Left
+			}
+			if phi := cw(d, back); phi < beta {
+				rays = append(rays, ray{phi, ccwSide, cwSide})
+			}
+		}
+		slices.SortFunc(rays, func(a, b ray) int { return cmpFloat(a.phi, b.phi) })
+		secs := make([]sector, 0, len(rays)+1)
+		from, reg := 0.0, p.Left
+		for _, r := range rays {
+			secs = append(secs, sector{r.phi - from, eps(reg)})
+			from, reg = r.phi, r.right
+		}
+		secs = append(secs, sector{beta - from, eps(reg)})
+		if !cp {
+			slices.Reverse(secs)
+		}
+		var lambda float64
+		switch {
+		case len(rays) > 0:
+			lambda = wedgeExponent(secs, !(cp && cq))
+		case cp && cq:
+			lambda = math.Pi / beta
+		default:
+			lambda = math.Pi / (2 * beta)
+		}
+		if lambda >= singularLambda {
+			continue
+		}
+		c := Corner{At: v, Opening: beta, Mixed: !(cp && cq), Junction: len(rays) > 0, Exponent: lambda - 1}
 		c.Owner, c.Region = p.Owner, p.Left
-		if !cj {
+		if !cp {
 			c.Owner, c.Region = q.Owner, q.Left
 		}
-		c.Boundary = m.Layout.Owners[c.Owner].Name
+		c.Boundary = lay.Owners[c.Owner].Name
 		c.Coefficient, c.inner = f.fitCorner(c)
 		out = append(out, c)
 	}
 	return out
+}
+
+func cmpFloat(a, b float64) int {
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
 }
 
 // fitCorner fits A in |E| = A r^p to the conductor panels of the corner's

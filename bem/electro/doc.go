@@ -46,6 +46,17 @@
 // ends on an insulated boundary (an electrode on a symmetry line or an
 // insulating wall) the same holds with p = pi/(2 beta) - 1: by mirroring
 // in the insulated line the stretch becomes a corner of opening 2 beta.
+// Where interfaces between dielectrics leave the vertex (a triple
+// junction of conductor, solid dielectric and gas), the separable solution
+// r^lambda f(theta) is pieced together across the sectors with f and
+// eps f' continuous; lambda is the smallest root of the resulting
+// condition, for two sectors of widths w1 (next to the conductor) and w2
+//
+//	eps1 sin(lambda w2) cos(lambda w1) + eps2 sin(lambda w1) cos(lambda w2) = 0,
+//
+// and p = lambda - 1 (a dielectric meeting a flat conductor at right
+// angles gives lambda = 1, no singularity; at other angles the field is
+// singular even on a smooth conductor, and rounding does not help).
 //
 // The coefficient A is fitted to the panels near the vertex and used to
 // suggest a rounding radius. The map zeta = z^g, g = pi/beta, opens the

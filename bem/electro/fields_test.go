@@ -282,3 +282,50 @@ func TestBreakdownLayers(t *testing.T) {
 		t.Errorf("strengths %v without the air default", st)
 	}
 }
+
+func TestTripleJunction(t *testing.T) {
+	// A round conductor (radius 0.5, 512-gon) sunk 0.2 into a dielectric
+	// layer (eps 4.5) under air, in a grounded box: the layer's surface
+	// meets the conductor at (+-0.4, 1), at 53.13 degrees from its tangent
+	// on the air side. The field there goes like r^(lambda-1) with lambda
+	// the root of eps1 sin(lambda w2) cos(lambda w1) + eps2 sin(lambda w1)
+	// cos(lambda w2) = 0 (separable solution across the interface, as in
+	// Jackson 1999 sec. 2.11): 0.8141, checked in TestWedgeExponent. The
+	// polygon's sides turn by 0.7 degrees, which moves the exponent by
+	// less than 0.01 (the tolerance). And the peak, on the smallest panel
+	// at the junction, must grow by 2^(1-lambda) = 1.138 when the panels
+	// are halved: within 3 %, the next term of the expansion.
+	w1, w2 := math.Atan2(4, 3), math.Pi-math.Atan2(4, 3)
+	lambda := wedgeExponent([]sector{{w1, 1}, {w2, 4.5}}, false)
+	box := closedRing(rectangle(-3, 0, 3, 3))
+	sb := newScene(false).
+		region("layer", 4.5, rectangle(-3, 0, 3, 1)).
+		region("air", 1, rectangle(-3, 1, 3, 3)).
+		body("rod", fixed(1), circle(r2.Vec{Y: 1.3}, 0.5, circleSides, 0)).
+		edge("box", fixed(0), box...)
+	s := sb.solve(t, mesh.Options{})
+	f := PanelFields(s.sol)
+	cs := f.Corners()
+	if len(cs) != 2 {
+		t.Fatalf("%d singular corners %+v, want the two junctions", len(cs), cs)
+	}
+	for _, c := range cs {
+		if !c.Junction || c.Mixed || math.Abs(math.Abs(c.At.X)-0.4) > 1e-3 || math.Abs(c.At.Y-1) > 1e-9 || math.Abs(c.Exponent-(lambda-1)) > 0.01 {
+			t.Errorf("corner %+v, want a junction at (+-0.4, 1) with exponent %.4f", c, lambda-1)
+		}
+		if c.RoundingRadius(1) != 0 {
+			t.Errorf("a junction suggests a rounding radius")
+		}
+	}
+	rf, err := PeakStudy(s.sol, mesh.Options{}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rf.Coarse.Corner == nil || !rf.Coarse.Corner.Junction {
+		t.Fatalf("peak %+v not at a junction", rf.Coarse)
+	}
+	t.Logf("exponents %.4f %.4f (want %.4f), ratio %.4f (want %.4f)", cs[0].Exponent, cs[1].Exponent, lambda-1, rf.Ratio, math.Pow(2, 1-lambda))
+	if want := math.Pow(2, 1-lambda); math.Abs(rf.Ratio/want-1) > 0.03 {
+		t.Errorf("refinement ratio %.4f, want %.4f", rf.Ratio, want)
+	}
+}

@@ -151,13 +151,19 @@ func (f *Fields) smoothPeak(corners []Corner) float64 {
 func (f *Fields) cornerWarning(sc *geom.Scene, pk Peak, strength []float64, rf *Refinement) string {
 	c := pk.Corner
 	kind := "sharp edge"
-	if c.Mixed {
+	switch {
+	case c.Junction:
+		kind = "junction with a dielectric interface"
+	case c.Mixed:
 		kind = "electrode edge on an insulated boundary"
 	}
 	msg := fmt.Sprintf("the peak field %.3g V/m on %q is at the %s %s, where the field is infinite in theory (|E| ~ r^%.2f): the value is the mesh's, not the device's",
 		pk.Value, c.Boundary, kind, where(sc, c.At), c.Exponent)
 	if rf != nil {
 		msg += fmt.Sprintf(" (with the panels halved it reads %.3g V/m, %.2f times as much)", rf.Fine.Value, rf.Ratio)
+	}
+	if c.Junction {
+		return msg + "; rounding the conductor does not remove a triple junction: change the angle at which the dielectric meets the conductor, or move the junction to where the field is low, and re-run"
 	}
 	target, what := 0.0, ""
 	if c.Region >= 0 && c.Region < len(strength) && strength[c.Region] > 0 {
