@@ -57,6 +57,12 @@ const (
 	maxPictureHeight    = 1600
 )
 
+// chartHooks add charts of a physics to boundary.png, below the potential
+// and inflow density: a physics file registers one in its init, with series
+// against the arc length along the boundaries (pore pressure under a
+// structure, surface field on a conductor).
+var chartHooks = map[geom.Physics]func(j *job) ([]*draw.Chart, error){}
+
 // addPictureFlags defines the flags of the pictures and the report on fs.
 func addPictureFlags(fs *pflag.FlagSet) *pictureJob {
 	p := &pictureJob{}
@@ -176,6 +182,14 @@ func pictureFiles(j *job) ([]outputFile, error) {
 			YLabel: "inflow density (" + units.InflowDensity + ")", Series: inSeries, Clip: 0.98},
 	}
 
+	if h, ok := chartHooks[sc.Problem.Physics]; ok {
+		more, err := h(j)
+		if err != nil {
+			return nil, err
+		}
+		charts = append(charts, more...)
+	}
+
 	var files []outputFile
 	add := func(name, caption string, png func(io.Writer) error, svg func(io.Writer) error) error {
 		var buf bytes.Buffer
@@ -194,7 +208,7 @@ func pictureFiles(j *job) ([]outputFile, error) {
 		}
 		return nil
 	}
-	chartH := int(math.Min(1100, math.Max(700, 0.75*float64(width))))
+	chartH := int(math.Min(550*float64(len(charts)), math.Max(350*float64(len(charts)), 0.375*float64(len(charts))*float64(width))))
 	for _, p := range []struct {
 		name, caption string
 		png, svg      func(io.Writer) error

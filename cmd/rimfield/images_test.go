@@ -12,6 +12,9 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/rimfield/rimfield/bem/draw"
+	"github.com/rimfield/rimfield/geom"
 )
 
 // The pictures are checked by the numbers behind them in bem/grid and
@@ -269,5 +272,27 @@ func TestReportFlowNet(t *testing.T) {
 	want := fmtNum(q / (k * head))
 	if !strings.Contains(string(html), want) || math.IsNaN(q) {
 		t.Errorf("report does not show the shape factor q/(k H) = %s", want)
+	}
+}
+
+// A physics adds its own charts to boundary.png through chartHooks; the
+// picture grows by one chart's height (350 pixels at least per chart).
+func TestChartHook(t *testing.T) {
+	called := false
+	chartHooks[geom.Seepage] = func(j *job) ([]*draw.Chart, error) {
+		called = true
+		pot, _ := draw.BoundarySeries(j.sol)
+		return []*draw.Chart{{Title: "pressure head", XLabel: "arc length (m)", YLabel: "m", Series: pot}}, nil
+	}
+	defer delete(chartHooks, geom.Seepage)
+	dir := filepath.Join(t.TempDir(), "out")
+	if _, _, err := runArgs(t, "solve", pictureScene, "-o", dir, "--panels", "200", "--image-size", "900x600", "-q"); err != nil {
+		t.Fatal(err)
+	}
+	if !called {
+		t.Fatal("the chart hook was not called")
+	}
+	if w, h, _ := readPNG(t, filepath.Join(dir, "boundary.png")); w != 900 || h != 1050 {
+		t.Errorf("boundary.png is %d x %d, want 900 x 1050 (three charts)", w, h)
 	}
 }
