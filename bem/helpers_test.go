@@ -129,3 +129,26 @@ func floating(q float64) geom.Condition {
 }
 
 func relErr(got, want float64) float64 { return math.Abs(got-want) / math.Abs(want) }
+
+// manufactured adds the closed polygon poly (domain on the left) with n
+// panels a side and the data of an exact solution at each panel's
+// midpoint: the potential u on the sides where potSide(side) is true, the
+// conormal flux kgrad.n on the others. Each panel is its own owner, so data
+// may vary along a side.
+func (b *builder) manufactured(poly []r2.Vec, n int, graded bool, reg int,
+	u func(r2.Vec) float64, kgrad func(r2.Vec) r2.Vec, potSide func(side int) bool) {
+	for s := range poly {
+		pts := split(poly[s], poly[(s+1)%len(poly)], n, graded)
+		for i := 0; i+1 < len(pts); i++ {
+			a, q := pts[i], pts[i+1]
+			m := r2.Scale(0.5, r2.Add(a, q))
+			c := pot(u(m))
+			if !potSide(s) {
+				nn := r2.Unit(r2.Vec{X: q.Y - a.Y, Y: a.X - q.X})
+				c = flux(r2.Dot(kgrad(m), nn))
+			}
+			o := b.owner("", c)
+			b.segment(a, q, 1, false, reg, geom.Outside, o, c)
+		}
+	}
+}

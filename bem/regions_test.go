@@ -72,22 +72,8 @@ func TestAnisotropicBlock(t *testing.T) {
 	kgrad := func(p r2.Vec) r2.Vec { return r2.Vec{X: 2 * p.X, Y: -2 * p.Y} }
 	bl := newBuilder(false)
 	reg := bl.region("block", kx, ky, false)
-	corners := rect(0, 0, 1, 1)
-	potSide := []bool{true, false, false, true} // y=0, x=1, y=1, x=0
-	for s := 0; s < 4; s++ {
-		pts := split(corners[s], corners[(s+1)%4], 48, true)
-		for i := 0; i+1 < len(pts); i++ {
-			a, b := pts[i], pts[i+1]
-			m := r2.Scale(0.5, r2.Add(a, b))
-			c := pot(u(m))
-			if !potSide[s] {
-				n := r2.Unit(r2.Vec{X: b.Y - a.Y, Y: a.X - b.X})
-				c = flux(r2.Dot(kgrad(m), n))
-			}
-			o := bl.owner("", c)
-			bl.segment(a, b, 1, false, reg, geom.Outside, o, c)
-		}
-	}
+	// Sides y=0, x=1, y=1, x=0: potential on y=0 and x=0.
+	bl.manufactured(rect(0, 0, 1, 1), 48, true, reg, u, kgrad, func(s int) bool { return s == 0 || s == 3 })
 	msh := bl.mesh()
 	sol, err := Solve(msh, nil)
 	if err != nil {

@@ -142,24 +142,8 @@ func expCos(t *testing.T, nside int, graded bool) (uc float64, in [3]float64, wo
 	}
 	bl := newBuilder(false)
 	reg := bl.region("square", 1, 1, false)
-	corners := rect(0, 0, 1, 1)
-	kinds := []geom.Kind{geom.Flux, geom.Flux, geom.Potential, geom.Potential} // y=0, x=1, y=1, x=0
-	for s := 0; s < 4; s++ {
-		pts := split(corners[s], corners[(s+1)%4], nside, graded)
-		for i := 0; i+1 < len(pts); i++ {
-			a, b := pts[i], pts[i+1]
-			m := r2.Scale(0.5, r2.Add(a, b))
-			var c geom.Condition
-			if kinds[s] == geom.Potential {
-				c = pot(u(m))
-			} else {
-				n := r2.Unit(r2.Vec{X: b.Y - a.Y, Y: a.X - b.X})
-				c = flux(r2.Dot(grad(m), n))
-			}
-			o := bl.owner("", c)
-			bl.segment(a, b, 1, false, reg, geom.Outside, o, c)
-		}
-	}
+	// Sides in order y=0, x=1, y=1, x=0: flux, flux, potential, potential.
+	bl.manufactured(rect(0, 0, 1, 1), nside, graded, reg, u, grad, func(s int) bool { return s >= 2 })
 	msh := bl.mesh()
 	sol, err := Solve(msh, nil)
 	if err != nil {
@@ -354,20 +338,7 @@ func TestManufacturedSaddlePentagon(t *testing.T) {
 	poly := []r2.Vec{{X: 0, Y: 0}, {X: 2, Y: -0.3}, {X: 2.4, Y: 1.2}, {X: 1.1, Y: 2.1}, {X: -0.4, Y: 1.3}}
 	bl := newBuilder(false)
 	reg := bl.region("pentagon", 1, 1, false)
-	for s := range poly {
-		pts := split(poly[s], poly[(s+1)%len(poly)], 64, true)
-		for i := 0; i+1 < len(pts); i++ {
-			a, b := pts[i], pts[i+1]
-			m := r2.Scale(0.5, r2.Add(a, b))
-			c := pot(u(m))
-			if s%2 == 1 || s == 4 {
-				n := r2.Unit(r2.Vec{X: b.Y - a.Y, Y: a.X - b.X})
-				c = flux(r2.Dot(grad(m), n))
-			}
-			o := bl.owner("", c)
-			bl.segment(a, b, 1, false, reg, geom.Outside, o, c)
-		}
-	}
+	bl.manufactured(poly, 64, true, reg, u, grad, func(s int) bool { return s == 0 || s == 2 })
 	msh := bl.mesh()
 	sol, err := Solve(msh, nil)
 	if err != nil {
@@ -406,22 +377,8 @@ func TestNearBoundaryGradient(t *testing.T) {
 	}
 	bl := newBuilder(false)
 	reg := bl.region("square", 1, 1, false)
-	corners := rect(0, 0, 1, 1)
 	n := 50
-	for s := 0; s < 4; s++ {
-		pts := split(corners[s], corners[(s+1)%4], n, false)
-		for i := 0; i+1 < len(pts); i++ {
-			a, b := pts[i], pts[i+1]
-			m := r2.Scale(0.5, r2.Add(a, b))
-			nn := r2.Unit(r2.Vec{X: b.Y - a.Y, Y: a.X - b.X})
-			c := flux(r2.Dot(grad(m), nn))
-			if s == 3 {
-				c = pot(u(m))
-			}
-			o := bl.owner("", c)
-			bl.segment(a, b, 1, false, reg, geom.Outside, o, c)
-		}
-	}
+	bl.manufactured(rect(0, 0, 1, 1), n, false, reg, u, grad, func(s int) bool { return s == 3 })
 	sol, err := Solve(bl.mesh(), nil)
 	if err != nil {
 		t.Fatal(err)
