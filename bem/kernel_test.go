@@ -114,8 +114,9 @@ func TestSelfIntegral(t *testing.T) {
 	}
 }
 
-// The gradients against central differences of the closed forms
-// (relative 1e-6: differences with step 1e-6 of the distance).
+// The one-pass evaluation: its integrals equal the separate closed forms,
+// its gradients match central differences of them (relative 1e-6:
+// differences with step 1e-6 of the distance).
 func TestGradientsAgainstDifferences(t *testing.T) {
 	rng := rand.New(rand.NewPCG(2, 2))
 	for trial := 0; trial < 200; trial++ {
@@ -125,7 +126,11 @@ func TestGradientsAgainstDifferences(t *testing.T) {
 		x := r2.Add(a, r2.Vec{X: 3 * rng.NormFloat64(), Y: 3 * rng.NormFloat64()})
 		dist := math.Min(r2.Norm(r2.Sub(x, a)), r2.Norm(r2.Sub(x, b)))
 		h := 1e-6 * dist
-		gsl, gdl := p.gradients(x)
+		sl0, dl0 := p.integrals(x, false)
+		sl1, dl1, gsl, gdl := p.all(x)
+		if math.Abs(sl1-sl0) > 1e-15*math.Max(1, math.Abs(sl0)) || dl1 != dl0 {
+			t.Fatalf("trial %d: one pass %v %v, separate %v %v", trial, sl1, dl1, sl0, dl0)
+		}
 		for k, e := range []r2.Vec{{X: 1}, {Y: 1}} {
 			sp, dp := p.integrals(r2.Add(x, r2.Scale(h, e)), false)
 			sm, dm := p.integrals(r2.Sub(x, r2.Scale(h, e)), false)
@@ -178,43 +183,6 @@ func TestDoubleLayerFreeTerm(t *testing.T) {
 	if got := sum(r2.Vec{X: 1.5, Y: 1.5}); math.Abs(got) > 1e-14 {
 		t.Errorf("outside: %v, want 0", got)
 	}
-}
-
-// The one-pass evaluation agrees with the separate closed forms to rounding.
-func TestAllAgrees(t *testing.T) {
-	rng := rand.New(rand.NewPCG(3, 3))
-	for trial := 0; trial < 200; trial++ {
-		a := r2.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64()}
-		p := newFrame(a, r2.Add(a, r2.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64()}))
-		x := r2.Add(a, r2.Vec{X: 2 * rng.NormFloat64(), Y: 2 * rng.NormFloat64()})
-		sl, dl := p.integrals(x, false)
-		gsl, gdl := p.gradients(x)
-		sl2, dl2, gsl2, gdl2 := p.all(x)
-		if math.Abs(sl-sl2) > 1e-15*math.Max(1, math.Abs(sl)) || dl != dl2 || gsl != gsl2 || gdl != gdl2 {
-			t.Fatalf("trial %d: separate %v %v %v %v, one pass %v %v %v %v", trial, sl, dl, gsl, gdl, sl2, dl2, gsl2, gdl2)
-		}
-	}
-}
-
-// gradients is the gradient part of all written out on its own, kept as
-// the reference that all is checked against.
-// (gradients returns the gradients with respect to x of the single- and
-// double-layer integrals. x must not be an endpoint of the panel.)
-func (p *panelFrame) gradients(x r2.Vec) (gsl, gdl r2.Vec) {
-	xa := r2.Sub(x, p.a)
-	xi0 := r2.Dot(xa, p.t)
-	eta0 := r2.Dot(xa, p.n)
-	alpha := -xi0
-	beta := p.l - xi0
-	ra2 := xi0*xi0 + eta0*eta0
-	rb2 := beta*beta + eta0*eta0
-	theta := subtended(x, p.a, p.b)
-	lr := logRatio(ra2, p.l*(beta+alpha))
-	gsl = r2.Scale(inv2Pi, r2.Add(r2.Scale(lr, p.t), r2.Scale(theta, p.n)))
-	ct := eta0 * (1/ra2 - 1/rb2)
-	cn := alpha/ra2 - beta/rb2
-	gdl = r2.Scale(inv2Pi, r2.Add(r2.Scale(ct, p.t), r2.Scale(cn, p.n)))
-	return gsl, gdl
 }
 
 // The linear-density double layer against quadrature of its definition
