@@ -86,6 +86,13 @@ func (c Corner) RoundingRadius(target float64) float64 {
 // field-side opening. Anisotropic materials enter with sqrt(kx ky), an
 // approximation.
 func (f *Fields) Corners() []Corner {
+	if !f.found {
+		f.corners, f.found = f.findCorners(), true
+	}
+	return slices.Clone(f.corners)
+}
+
+func (f *Fields) findCorners() []Corner {
 	m := f.Sol.Mesh
 	lay := m.Layout
 	// Boundary panels by start vertex, to find what follows a panel

@@ -27,6 +27,9 @@ type Fields struct {
 	// next and prev are the neighbouring panels along the boundary or
 	// interface (the panel whose A is this one's B, and the reverse), or -1.
 	next, prev []int
+	// corners caches Corners once found.
+	corners []Corner
+	found   bool
 }
 
 // conductor reports whether the panel lies on a conductor: a boundary panel
