@@ -109,12 +109,17 @@ func Analyse(sc *geom.Scene, sys *bem.System, sol *bem.Solution, o Options) (*Re
 	return rep, nil
 }
 
+// unitOf returns the scene's coordinate unit and metres per unit.
+func unitOf(sc *geom.Scene) (string, float64) {
+	if sc.Problem.Unit == "" || !(sc.Problem.Scale > 0) {
+		return "m", 1
+	}
+	return sc.Problem.Unit, sc.Problem.Scale
+}
+
 // where writes a point in the scene's unit.
 func where(sc *geom.Scene, p r2.Vec) string {
-	unit, scale := sc.Problem.Unit, sc.Problem.Scale
-	if unit == "" || !(scale > 0) {
-		unit, scale = "m", 1
-	}
+	unit, scale := unitOf(sc)
 	return fmt.Sprintf("(%.4g, %.4g) %s", p.X/scale, p.Y/scale, unit)
 }
 
@@ -174,10 +179,7 @@ func (f *Fields) cornerWarning(sc *geom.Scene, pk Peak, strength []float64, rf *
 		what = "the largest field on the smooth parts of the conductors"
 	}
 	r := c.RoundingRadius(target)
-	scale, unit := sc.Problem.Scale, sc.Problem.Unit
-	if unit == "" || !(scale > 0) {
-		unit, scale = "m", 1
-	}
+	unit, scale := unitOf(sc)
 	switch size := f.ownerLength(c.Owner) / (2 * math.Pi); {
 	case r > 0.5*size:
 		// The estimate holds for radii well below the conductor's size.
