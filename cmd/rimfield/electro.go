@@ -105,6 +105,7 @@ func electroResults(j *job, r *results) error {
 	if err != nil {
 		return err
 	}
+	sec.electroExtras = extras
 	r.Electrostatic = sec
 	r.Warnings = append(r.Warnings, extras.Warnings...)
 	return nil

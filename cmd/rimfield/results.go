@@ -109,6 +109,9 @@ type location struct {
 type electrostaticSection struct {
 	Capacitance *capacitance `json:"capacitance,omitempty"`
 	PeakField   *peakField   `json:"peak_field,omitempty"`
+	// The keys of the hook's extras (electro.go) sit beside the contract's
+	// in the same JSON object.
+	*electroExtras
 }
 
 // capacitance is the Maxwell capacitance matrix per metre: entry (i, j) is
@@ -287,6 +290,11 @@ func nonFinite(v reflect.Value, path string) []string {
 		t := v.Type()
 		for i := range t.NumField() {
 			f := t.Field(i)
+			if f.Anonymous {
+				// An embedded struct's keys are promoted into this object.
+				out = append(out, nonFinite(v.Field(i), path)...)
+				continue
+			}
 			if !f.IsExported() {
 				continue
 			}

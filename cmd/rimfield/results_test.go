@@ -7,6 +7,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"reflect"
 	"strconv"
 	"strings"
 	"testing"
@@ -350,5 +351,32 @@ func TestDescribeCondition(t *testing.T) {
 		if got := describeCondition(c, u); got != want {
 			t.Errorf("got %q, want %q", got, want)
 		}
+	}
+}
+
+// The non-finite check finds numbers in nested sections, slices, pointers
+// and embedded structs (whose keys JSON promotes), and names them as JSON
+// keys.
+func TestNonFiniteKeys(t *testing.T) {
+	nan := number(math.NaN())
+	r := &results{
+		Boundaries: []boundary{{Name: "a"}, {Name: "b", Inflow: number(math.Inf(-1))}},
+		Electrostatic: &electrostaticSection{
+			Capacitance:   &capacitance{Conductors: []string{"a"}, Matrix: [][]number{{1, nan}}},
+			electroExtras: &electroExtras{EnergyJPerM: nan},
+		},
+		PotentialAtInfinity: &nan,
+	}
+	got := strings.Join(nonFinite(reflect.ValueOf(r), ""), " ")
+	want := "boundaries[1].inflow potential_at_infinity electrostatic.capacitance.matrix[0][1] electrostatic.energy_J_per_m"
+	if got != want {
+		t.Errorf("got %q\nwant %q", got, want)
+	}
+	data, err := json.Marshal(r.Electrostatic)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(string(data), `"energy_J_per_m":null`) || !strings.Contains(string(data), `"matrix":[[1,null]]`) {
+		t.Errorf("electrostatic section written as %s", data)
 	}
 }
