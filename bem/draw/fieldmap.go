@@ -172,14 +172,15 @@ func (m *Map) draw(c canvas, W, H float64) {
 	f.y0 = top + shift
 
 	m.drawField(c, f, lo, hi)
-	m.drawScene(c, f, st)
+	geo := m.sceneIn(f.win)
+	m.drawScene(c, f, st, geo)
 	for _, l := range m.Contours {
 		c.stroke(contour, st.line, nil, false, f.pxs(l.Points))
 	}
 	for _, l := range m.Lines {
 		drawFluxLine(c, f, l, st)
 	}
-	m.drawLabels(c, f, st)
+	m.drawLabels(c, f, st, geo)
 	if m.Marker != nil {
 		drawMarker(c, f, *m.Marker, st)
 	}
@@ -323,8 +324,59 @@ func polygonRings(f frame, pg geom.Polygon) [][]r2.Vec {
 	return out
 }
 
+// named is a body or an edge clipped to the window.
+type named struct {
+	name     string
+	polygons []geom.Polygon // bodies
+	lines    [][]r2.Vec     // edges
+}
+
+// clippedScene is the scene's geometry within the window.
+type clippedScene struct {
+	regions []geom.Polygon
+	bodies  []named
+	edges   []named
+}
+
+// sceneIn clips the scene's regions, bodies and edges to the window, so
+// that nothing is drawn outside the plot.
+func (m *Map) sceneIn(w grid.Window) clippedScene {
+	var out clippedScene
+	if m.Scene == nil {
+		return out
+	}
+	for _, rg := range m.Scene.Regions {
+		for _, pg := range rg.Polygons {
+			if c := clipPolygon(pg, w); c != nil {
+				out.regions = append(out.regions, c)
+			}
+		}
+	}
+	for _, b := range m.Scene.Bodies {
+		nb := named{name: b.Name}
+		for _, pg := range b.Polygons {
+			if c := clipPolygon(pg, w); c != nil {
+				nb.polygons = append(nb.polygons, c)
+			}
+		}
+		if len(nb.polygons) > 0 {
+			out.bodies = append(out.bodies, nb)
+		}
+	}
+	for _, e := range m.Scene.Edges {
+		ne := named{name: e.Name}
+		for _, l := range e.Lines {
+			ne.lines = append(ne.lines, clipLine(l, w)...)
+		}
+		if len(ne.lines) > 0 {
+			out.edges = append(out.edges, ne)
+		}
+	}
+	return out
+}
+
 // drawScene masks what is not domain and draws bodies, regions and edges.
-func (m *Map) drawScene(c canvas, f frame, st style) {
+func (m *Map) drawScene(c canvas, f frame, st style, geo clippedScene) {
 	sc := m.Scene
 	if sc == nil {
 		return
@@ -335,10 +387,8 @@ func (m *Map) drawScene(c canvas, f frame, st style) {
 	if !sc.Problem.Open && len(sc.Regions) > 0 {
 		rect := []r2.Vec{win.Min, {X: win.Min.X, Y: win.Max.Y}, win.Max, {X: win.Max.X, Y: win.Min.Y}}
 		rings := [][]r2.Vec{f.pxs(rect)}
-		for _, rg := range sc.Regions {
-			for _, pg := range rg.Polygons {
-				rings = append(rings, polygonRings(f, pg)...)
-			}
+		for _, pg := range geo.regions {
+			rings = append(rings, polygonRings(f, pg)...)
 		}
 		c.fill(white, rings...)
 	}
@@ -348,23 +398,21 @@ func (m *Map) drawScene(c canvas, f frame, st style) {
 		c.fill(groundCol, f.pxs(below))
 		c.stroke(bodyEdge, 2*st.line, nil, false, f.pxs([]r2.Vec{{X: win.Min.X, Y: y}, {X: win.Max.X, Y: y}}))
 	}
-	for _, rg := range sc.Regions {
-		for _, pg := range rg.Polygons {
-			for _, r := range pg {
-				c.stroke(bodyEdge, st.line, nil, true, f.pxs(r))
-			}
+	for _, pg := range geo.regions {
+		for _, r := range pg {
+			c.stroke(bodyEdge, st.line, nil, true, f.pxs(r))
 		}
 	}
-	for _, b := range sc.Bodies {
-		for _, pg := range b.Polygons {
+	for _, b := range geo.bodies {
+		for _, pg := range b.polygons {
 			c.fill(bodyFill, polygonRings(f, pg)...)
 			for _, r := range pg {
 				c.stroke(bodyEdge, 1.5*st.line, nil, true, f.pxs(r))
 			}
 		}
 	}
-	for _, e := range sc.Edges {
-		for _, l := range e.Lines {
+	for _, e := range geo.edges {
+		for _, l := range e.lines {
 			pts := f.pxs(l)
 			c.stroke(white, 5*st.line, nil, false, pts)
 			c.stroke(edgeCol, 3*st.line, nil, false, pts)
@@ -374,23 +422,23 @@ func (m *Map) drawScene(c canvas, f frame, st style) {
 
 // drawLabels names the bodies (inside when they are large enough, beside
 // them otherwise), the edges and the ground plane.
-func (m *Map) drawLabels(c canvas, f frame, st style) {
+func (m *Map) drawLabels(c canvas, f frame, st style, geo clippedScene) {
 	sc := m.Scene
 	if sc == nil {
 		return
 	}
-	for _, b := range sc.Bodies {
-		if b.Name == "" || len(b.Polygons) == 0 {
+	for _, b := range geo.bodies {
+		if b.name == "" {
 			continue
 		}
-		pg := largestPolygon(b.Polygons)
+		pg := largestPolygon(b.polygons)
 		lo, hi := ringBounds(pg[0])
 		p0, p1 := f.px(lo), f.px(hi)
 		bw, bh := p1.X-p0.X, p0.Y-p1.Y
-		tw, th := c.measure(b.Name, st.font)
+		tw, th := c.measure(b.name, st.font)
 		at := f.px(labelPoint(pg))
 		if tw+4 <= bw && th*1.6 <= bh && insidePolygon(pg, f.world(at.X, at.Y)) {
-			haloText(c, b.Name, at.X, at.Y, st.font, black, 0.5, 0.5)
+			haloText(c, b.name, at.X, at.Y, st.font, black, 0.5, 0.5)
 			continue
 		}
 		// Beside the body, at its right (left when that leaves the plot),
@@ -400,13 +448,13 @@ func (m *Map) drawLabels(c canvas, f frame, st style) {
 		if x+tw > f.x0+f.pw {
 			x, ax = p0.X-st.font*0.4, 1
 		}
-		haloText(c, b.Name, x, y, st.font, black, ax, 0.5)
+		haloText(c, b.name, x, y, st.font, black, ax, 0.5)
 	}
-	for _, e := range sc.Edges {
-		if e.Name == "" {
+	for _, e := range geo.edges {
+		if e.name == "" {
 			continue
 		}
-		a, b, ok := longestSegment(e.Lines)
+		a, b, ok := longestSegment(e.lines)
 		if !ok {
 			continue
 		}
@@ -420,7 +468,7 @@ func (m *Map) drawLabels(c canvas, f frame, st style) {
 		at := r2.Add(mid, r2.Scale(st.font*0.9, nrm))
 		at.X = clamp(at.X, f.x0+st.font, f.x0+f.pw-st.font)
 		at.Y = clamp(at.Y, f.y0+st.font, f.y0+f.ph-st.font*0.5)
-		haloText(c, e.Name, at.X, at.Y, st.small, black, 0.5, 0.5)
+		haloText(c, e.name, at.X, at.Y, st.small, black, 0.5, 0.5)
 	}
 	if g := sc.Problem.Ground; g != nil && sc.Problem.Open && g.Y > f.win.Min.Y && g.Y < f.win.Max.Y {
 		p := f.px(r2.Vec{X: f.win.Max.X, Y: g.Y})
@@ -510,7 +558,7 @@ func labelPoint(pg geom.Polygon) r2.Vec {
 	return best
 }
 
-func longestSegment(lines []geom.Line) (a, b r2.Vec, ok bool) {
+func longestSegment(lines [][]r2.Vec) (a, b r2.Vec, ok bool) {
 	best := -1.0
 	for _, l := range lines {
 		for i := 0; i+1 < len(l); i++ {
