@@ -175,10 +175,14 @@ func (m *Map) draw(c canvas, W, H float64) {
 	geo := m.sceneIn(f.win)
 	m.drawScene(c, f, st, geo)
 	for _, l := range m.Contours {
-		c.stroke(contour, st.line, nil, false, f.pxs(l.Points))
+		for _, piece := range clipLine(l.Points, f.win) {
+			c.stroke(contour, st.line, nil, false, f.pxs(piece))
+		}
 	}
 	for _, l := range m.Lines {
-		drawFluxLine(c, f, l, st)
+		for _, piece := range clipLine(l, f.win) {
+			drawFluxLine(c, f, piece, st)
+		}
 	}
 	m.drawLabels(c, f, st, geo)
 	if m.Marker != nil {

@@ -114,7 +114,7 @@ const (
 // with adaptive steps. A line stops where it steps out of the domain (on a
 // sink boundary, found by bisection), at the edge of the window w, at a
 // stagnation point or after a step limit; it crosses interfaces between
-// regions. Seeds sit at the middle of each flux increment: cumulative
+// regions. Seeds outside w get no line. Seeds sit at the middle of each flux increment: cumulative
 // inflow (m+1/2)*Step for every whole channel, m = 0, 1, ... while
 // (m+1)*Step <= the total inflow. Sources are all bodies and edges where
 // flux enters the domain, floating ones included (in electrostatics, lines
@@ -176,7 +176,12 @@ func Trace(sol *bem.Solution, w Window, drops int, o TraceOptions) *FlowNet {
 		return net
 	}
 
-	seeds := placeSeeds(sol, src, net.Step, all)
+	var seeds []seed
+	for _, sd := range placeSeeds(sol, src, net.Step, all) {
+		if w.Contains(sd.at) { // a line seeded outside the window is not drawn
+			seeds = append(seeds, sd)
+		}
+	}
 	tr := newTracer(sol, w, o.Tol)
 	net.Lines = make([]Line, len(seeds))
 	workers := o.Workers
