@@ -20,7 +20,7 @@ func init() {
 // window, computed once per job and shared by contours and pictures.
 func (j *job) sampled() *grid.Grid {
 	if j.grid == nil {
-		w := grid.Auto(j.mesh)
+		w := j.window()
 		nx, ny := w.Shape(grid.DefaultPoints(len(j.mesh.Panels)))
 		j.grid = grid.Sample(j.sol, w, nx, ny, grid.Options{})
 	}

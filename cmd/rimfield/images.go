@@ -36,7 +36,9 @@ type pictureJob struct {
 	width  int       // picture width in pixels
 	height int       // picture height in pixels; 0: from the scene's proportions
 
-	atText, sizeText string // the flags as given
+	win []float64 // --window: x0, y0, x1, y1 in the scene's unit; nil for automatic
+
+	atText, sizeText, winText string // the flags as given
 
 	res      *results
 	pictures []picture
@@ -68,6 +70,7 @@ func addPictureFlags(fs *pflag.FlagSet) *pictureJob {
 	p := &pictureJob{}
 	fs.StringVar(&p.atText, "at", "", "explicit equipotential `LEVELS`, comma-separated in the potential's unit (e.g. 0.1,0.5,0.9), instead of --levels; for contours and pictures")
 	fs.StringVar(&p.sizeText, "image-size", "", "picture size `WxH` in pixels (e.g. 1600x900); default 1400 wide, height from the scene's proportions")
+	fs.StringVar(&p.winText, "window", "", "area `X0,Y0,X1,Y1` (scene units: lower left and upper right corners) that contours and pictures cover; default: the whole scene, 1.5 times the bodies' extent in an open scene")
 	fs.BoolVar(&p.svg, "svg", false, "also write each picture as SVG (vector) next to its PNG")
 	fs.BoolVar(&p.report, "report", false, "also write report.html: inputs, results with units, pictures, warnings and cautions in one self-contained file")
 	return p
@@ -84,6 +87,19 @@ func (p *pictureJob) check() error {
 			p.at = append(p.at, v)
 		}
 	}
+	if p.winText != "" {
+		for _, f := range strings.Split(p.winText, ",") {
+			v, err := strconv.ParseFloat(strings.TrimSpace(f), 64)
+			if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
+				p.win = nil
+				break
+			}
+			p.win = append(p.win, v)
+		}
+		if len(p.win) != 4 || !(p.win[2] > p.win[0]) || !(p.win[3] > p.win[1]) {
+			return usagef("solve: --window %q: give four numbers X0,Y0,X1,Y1 in the scene's unit with X1 > X0 and Y1 > Y0 (e.g. -5,-3,5,1)", p.winText)
+		}
+	}
 	p.width = defaultPictureWidth
 	if p.sizeText != "" {
 		ws, hs, ok := strings.Cut(strings.ToLower(p.sizeText), "x")
@@ -95,6 +111,20 @@ func (p *pictureJob) check() error {
 		p.width, p.height = w, h
 	}
 	return nil
+}
+
+// window returns the area that contours and pictures cover, in metres:
+// --window, or grid.Auto.
+func (j *job) window() grid.Window {
+	if j.pics != nil && j.pics.win != nil {
+		s := j.scene.Problem.Scale
+		if !(s > 0) {
+			s = 1
+		}
+		w := j.pics.win
+		return grid.Window{Min: r2.Vec{X: w[0] * s, Y: w[1] * s}, Max: r2.Vec{X: w[2] * s, Y: w[3] * s}}
+	}
+	return grid.Auto(j.mesh)
 }
 
 // contourLevels returns the equipotential levels of the job: --at as given,

@@ -174,6 +174,39 @@ func TestContourLevelsAt(t *testing.T) {
 	}
 }
 
+// --window limits contours.geojson to the area given, in the scene's unit.
+func TestWindow(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "out")
+	_, _, err := runArgs(t, "solve", pictureScene, "-o", dir, "--panels", "200", "--window", "-10,-6,2,0.5", "--no-images", "-q")
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, err := os.ReadFile(filepath.Join(dir, contoursName))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var fc struct {
+		Features []struct {
+			Geometry struct {
+				Coordinates [][2]float64 `json:"coordinates"`
+			} `json:"geometry"`
+		} `json:"features"`
+	}
+	if err := json.Unmarshal(data, &fc); err != nil {
+		t.Fatal(err)
+	}
+	if len(fc.Features) == 0 {
+		t.Fatal("no contours in the window")
+	}
+	for _, f := range fc.Features {
+		for _, c := range f.Geometry.Coordinates {
+			if c[0] < -10 || c[0] > 2 || c[1] < -6 || c[1] > 0.5 {
+				t.Fatalf("contour point %v outside the window", c)
+			}
+		}
+	}
+}
+
 func TestPictureFlagErrors(t *testing.T) {
 	dir := filepath.Join(t.TempDir(), "out")
 	for _, c := range []struct {
@@ -183,6 +216,8 @@ func TestPictureFlagErrors(t *testing.T) {
 		{[]string{"--at", "0.1,x"}, "--at"},
 		{[]string{"--image-size", "10x10"}, "--image-size"},
 		{[]string{"--image-size", "800"}, "--image-size"},
+		{[]string{"--window", "0,0,1"}, "--window"},
+		{[]string{"--window", "5,0,1,1"}, "--window"},
 	} {
 		_, _, err := runArgs(t, append([]string{"solve", pictureScene, "-o", dir}, c.args...)...)
 		wantUsageError(t, err, c.want)
