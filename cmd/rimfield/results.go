@@ -178,7 +178,6 @@ var pendingPhysics = map[geom.Physics]struct {
 	msg      string
 	blocking bool
 }{
-	geom.Electrostatic: {msg: "the electrostatic section (capacitance matrix, peak field) is not computed by this version yet"},
 	geom.Seepage:       {msg: "the seepage section (discharge, exit gradient, uplift) is not computed by this version yet"},
 	geom.Flow:          {msg: "flow scenes cannot be solved by this version yet: the uniform stream and the Kutta condition are not applied (rimfield check validates the scene)", blocking: true},
 }
