@@ -277,7 +277,9 @@ type assembled struct {
 }
 
 // assemble fills the matrices, rows spread over workers goroutines.
-func (pr *problem) assemble(workers int, progress func(done, total int)) *assembled {
+// A panic in a worker (a bug) is turned into an error rather than left to
+// crash the caller's process from a goroutine it cannot recover in.
+func (pr *problem) assemble(workers int, progress func(done, total int)) (*assembled, error) {
 	n := pr.nUnk
 	as := &assembled{a: mat.NewDense(n, n, nil)}
 	nb := pr.nOwners
@@ -292,11 +294,22 @@ func (pr *problem) assemble(workers int, progress func(done, total int)) *assemb
 	var mu sync.Mutex
 	done := 0
 	next := 0
+	var failure error
 	const chunk = 16
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			defer func() {
+				if r := recover(); r != nil {
+					mu.Lock()
+					if failure == nil {
+						failure = fmt.Errorf("bem: internal error while assembling the system: %v; please report it with the scene", r)
+					}
+					next = n
+					mu.Unlock()
+				}
+			}()
 			for {
 				mu.Lock()
 				lo := next
@@ -320,7 +333,10 @@ func (pr *problem) assemble(workers int, progress func(done, total int)) *assemb
 		}()
 	}
 	wg.Wait()
-	return as
+	if failure != nil {
+		return nil, failure
+	}
+	return as, nil
 }
 
 // fillRow writes equation i into arow (unknown coefficients) and brow

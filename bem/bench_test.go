@@ -27,7 +27,10 @@ func BenchmarkAssemble(b *testing.B) {
 			b.ReportAllocs()
 			b.ResetTimer()
 			for i := 0; i < b.N; i++ {
-				as := pr.assemble(0, nil)
+				as, err := pr.assemble(0, nil)
+				if err != nil {
+					b.Fatal(err)
+				}
 				sink += as.a.At(0, 0)
 			}
 			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(pr.nUnk*pr.nUnk), "ns/entry")

@@ -39,7 +39,9 @@ func Assemble(m *mesh.Mesh, s *Settings) (*System, error) {
 		return nil, err
 	}
 	sys := &System{pr: pr}
-	sys.as = pr.assemble(s.Workers, s.Progress)
+	if sys.as, err = pr.assemble(s.Workers, s.Progress); err != nil {
+		return nil, err
+	}
 	sys.lu.Factorize(sys.as.a)
 	sys.cond = sys.lu.Cond()
 	if math.IsInf(sys.cond, 0) || math.IsNaN(sys.cond) || sys.cond > 1e15 {
