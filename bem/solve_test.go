@@ -2,6 +2,7 @@ package bem
 
 import (
 	"math"
+	"sync"
 	"testing"
 
 	"github.com/rimfield/rimfield/geom"
@@ -395,5 +396,26 @@ func TestNearBoundaryGradient(t *testing.T) {
 		if worstU > 1e-3 || worstG > 5e-3 {
 			t.Errorf("at %.2g panel lengths from the boundary: worst potential error %.2g, worst relative gradient error %.2g", d, worstU, worstG)
 		}
+	}
+}
+
+// The progress callback reports every row once and ends at the total.
+func TestProgress(t *testing.T) {
+	var mu sync.Mutex
+	last, calls := 0, 0
+	total := 0
+	m := coax(1, 2, 100, 1).mesh()
+	sys, err := Assemble(m, &Settings{Progress: func(done, n int) {
+		mu.Lock()
+		defer mu.Unlock()
+		calls++
+		last = max(last, done)
+		total = n
+	}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if calls == 0 || last != total || total != sys.Unknowns() {
+		t.Errorf("progress: %d calls, last %d of %d, unknowns %d", calls, last, total, sys.Unknowns())
 	}
 }
