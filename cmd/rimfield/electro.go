@@ -82,9 +82,13 @@ type peakRefinement struct {
 }
 
 // singularCorner is a corner of a conductor where |E| ~ r^exponent; x, y in
-// metres; opening_deg is the field-side opening angle.
+// metres; opening_deg is the field-side opening angle. Kind is "corner" (a
+// sharp edge of the conductor), "electrode_edge" (the conductor ends on an
+// insulated boundary) or "junction" (a dielectric interface meets the
+// conductor there).
 type singularCorner struct {
 	Boundary   string `json:"boundary"`
+	Kind       string `json:"kind"`
 	X          number `json:"x"`
 	Y          number `json:"y"`
 	OpeningDeg number `json:"opening_deg"`
@@ -157,8 +161,15 @@ func electroSection(j *job) (*electrostaticSection, *electroExtras, error) {
 		})
 	}
 	for _, c := range rep.Corners {
+		kind := "corner"
+		switch {
+		case c.Junction:
+			kind = "junction"
+		case c.Mixed:
+			kind = "electrode_edge"
+		}
 		ex.SingularCorners = append(ex.SingularCorners, singularCorner{
-			Boundary: c.Boundary, X: number(c.At.X), Y: number(c.At.Y),
+			Boundary: c.Boundary, Kind: kind, X: number(c.At.X), Y: number(c.At.Y),
 			OpeningDeg: number(c.Opening * 180 / math.Pi), Exponent: number(c.Exponent),
 		})
 	}
