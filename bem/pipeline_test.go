@@ -2,6 +2,7 @@ package bem
 
 import (
 	"math"
+	"math/rand/v2"
 	"testing"
 
 	"github.com/rimfield/rimfield/geom"
@@ -164,5 +165,77 @@ func TestMeshRefinementOrder(t *testing.T) {
 	t.Logf("errors %.3g, mean order %.2f", errs, order)
 	if order < 1.8 {
 		t.Errorf("mean observed order %.2f under refinement (errors %.3g)", order, errs)
+	}
+}
+
+// Random open scenes of two to four separated bodies (rectangles and
+// polygons) at fixed potentials, through the whole chain with default
+// settings: the charges must sum to zero (bounded potential at infinity;
+// to rounding) and the Maxwell matrix, one right-hand side per body on one
+// factorisation, must be symmetric (Green's reciprocity theorem; any
+// electrostatics text) to the discretisation accuracy, 1e-3 relative to its
+// diagonal. Seeded.
+func TestRandomSceneInvariants(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 7))
+	for trial := 0; trial < 6; trial++ {
+		nb := 2 + rng.IntN(3)
+		var bodies []geom.Body
+		for k := 0; k < nb; k++ {
+			c := r2.Vec{X: 4 * float64(k), Y: rng.Float64()}
+			var ringv []r2.Vec
+			if rng.IntN(2) == 0 {
+				w, h := 0.5+rng.Float64(), 0.5+rng.Float64()
+				ringv = rect(c.X-w, c.Y-h, c.X+w, c.Y+h)
+			} else {
+				ringv = ngon(c, 0.5+rng.Float64(), 3+rng.IntN(6), true, rng.Float64())
+			}
+			bodies = append(bodies, geom.Body{Name: string(rune('a' + k)), Feature: k,
+				Polygons: []geom.Polygon{{ring(ringv)}}, Cond: pot(float64(k))})
+		}
+		sc := &geom.Scene{
+			Problem: geom.Problem{Physics: geom.Laplace, Scale: 1, Open: true, Background: geom.Material{Kx: 1, Ky: 1}},
+			Bodies:  bodies,
+		}
+		lay, err := sc.Layout()
+		if err != nil {
+			t.Fatal(err)
+		}
+		m, err := mesh.Build(lay, mesh.Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		sys, err := Assemble(m, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		cmat := make([][]float64, nb)
+		for j := 0; j < nb; j++ {
+			conds := make([]geom.Condition, nb)
+			for i := range conds {
+				conds[i] = pot(0)
+			}
+			conds[j] = pot(1)
+			sol, err := sys.Solve(&Data{Owners: conds})
+			if err != nil {
+				t.Fatal(err)
+			}
+			sum, scale := 0.0, 0.0
+			cmat[j] = make([]float64, nb)
+			for i, r := range sol.Owners() {
+				cmat[j][i] = r.Inflow
+				sum += r.Inflow
+				scale = math.Max(scale, math.Abs(r.Inflow))
+			}
+			if math.Abs(sum) > 1e-9*scale {
+				t.Errorf("trial %d, 1 V on %d: charges sum to %v", trial, j, sum)
+			}
+		}
+		for i := 0; i < nb; i++ {
+			for j := 0; j < i; j++ {
+				if d := math.Abs(cmat[i][j]-cmat[j][i]) / math.Min(cmat[i][i], cmat[j][j]); d > 1e-3 {
+					t.Errorf("trial %d: C[%d][%d] = %v, C[%d][%d] = %v (asymmetry %.2g)", trial, i, j, cmat[i][j], j, i, cmat[j][i], d)
+				}
+			}
+		}
 	}
 }
