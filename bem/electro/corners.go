@@ -1,6 +1,7 @@
 package electro
 
 import (
+	"cmp"
 	"math"
 	"slices"
 
@@ -158,7 +159,7 @@ func (f *Fields) findCorners() []Corner {
 				rays = append(rays, ray{phi, ccwSide, cwSide})
 			}
 		}
-		slices.SortFunc(rays, func(a, b ray) int { return cmpFloat(a.phi, b.phi) })
+		slices.SortFunc(rays, func(a, b ray) int { return cmp.Compare(a.phi, b.phi) })
 		secs := make([]sector, 0, len(rays)+1)
 		from, reg := 0.0, p.Left
 		for _, r := range rays {
@@ -191,16 +192,6 @@ func (f *Fields) findCorners() []Corner {
 		out = append(out, c)
 	}
 	return out
-}
-
-func cmpFloat(a, b float64) int {
-	switch {
-	case a < b:
-		return -1
-	case a > b:
-		return 1
-	}
-	return 0
 }
 
 // fitCorner fits A in |E| = A r^p to the conductor panels of the corner's
