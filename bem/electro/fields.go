@@ -52,8 +52,9 @@ func knn(k geom.Material, n, t r2.Vec) (nn, nt float64) {
 }
 
 // PanelFields works out the field on every panel of sol. The normal
-// component comes from the inflow density, E_n = (F - t.K.n E_t) / n.K.n
-// (F = D.n into the region; for isotropic material E_n = F / eps). The
+// component comes from the inflow density, E_n = (F + n.K.t E_t) / n.K.n
+// (F = D.(-n), the displacement entering the region through the panel;
+// for isotropic material E_n = F / eps). The
 // tangential component is the difference of the midpoint potentials of
 // the neighbouring panels along the boundary over their distance along it,
 // -du/ds (first order in the panel size on graded meshes); it is 0 on
@@ -72,9 +73,7 @@ func PanelFields(sol *bem.Solution) *Fields {
 		if !p.Interface() {
 			f.Charge[j] = sol.F[j]
 		}
-		if conductor(p) {
-			f.Tangent[j] = 0
-		} else {
+		if !conductor(p) {
 			f.Tangent[j] = f.tangential(j)
 		}
 		nrm, tan := p.Normal(), p.Tangent()
