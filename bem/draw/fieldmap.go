@@ -87,8 +87,8 @@ func (m *Map) check(width, height int) error {
 	if width < minSide || height < minSide {
 		return fmt.Errorf("draw: picture size %d x %d is too small; give at least %d x %d", width, height, minSide, minSide)
 	}
-	if m.Grid == nil || len(m.Values) != m.Grid.NX*m.Grid.NY {
-		return fmt.Errorf("draw: the map needs a grid and one value per sample")
+	if m.Grid == nil || m.Grid.NX < 2 || m.Grid.NY < 2 || len(m.Values) != m.Grid.NX*m.Grid.NY || m.Grid.Window.Empty() {
+		return fmt.Errorf("draw: the map needs a grid of at least 2 x 2 samples over a window with area, and one value per sample")
 	}
 	return nil
 }

@@ -281,3 +281,27 @@ func TestTraceFloatingOnly(t *testing.T) {
 		}
 	}
 }
+
+// Coaxial annulus a < r < b: q/(k H) = 2 pi/ln(b/a). Source: any
+// potential-theory text (e.g. Kellogg, Foundations of Potential Theory,
+// 1929). Tolerance 1e-3: the default mesh's accuracy for integrated flux
+// (bem's pipeline tests); similar inscribed 256-gons keep ln(b/a) nearly
+// exact. The lines are radii: each ends at the angle it started from.
+func TestTraceCoaxial(t *testing.T) {
+	a, b := 1.0, 3.0
+	sol := solve(t, coaxScene(a, b, 0, 256), mesh.Options{})
+	net := Trace(sol, Auto(sol.Mesh), 8, TraceOptions{})
+	want := 2 * math.Pi / math.Log(b/a)
+	if math.Abs(net.ShapeFactor-want) > 1e-3*want {
+		t.Errorf("shape factor %.6g, want %.6g", net.ShapeFactor, want)
+	}
+	for _, l := range net.Lines {
+		s, e := l.Points[0], l.Points[len(l.Points)-1]
+		if d := math.Remainder(math.Atan2(e.Y, e.X)-math.Atan2(s.Y, s.X), 2*math.Pi); math.Abs(d) > 1e-3 {
+			t.Errorf("line from %v ends at %v: not a radius", s, e)
+		}
+		if r := r2.Norm(e); math.Abs(r-b) > 1e-3*b {
+			t.Errorf("line ends at radius %v, want %v", r, b)
+		}
+	}
+}
