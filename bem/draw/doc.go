@@ -3,9 +3,10 @@
 // flux lines, bodies, edges, a colour bar in physical units, a scale bar in
 // the scene's unit and a title, as PNG (rasterised with fogleman/gg and the
 // Go fonts, no system fonts needed) or SVG (gonum's vg); and line charts of
-// named series against arc length (Chart), such as the potential and the
-// inflow density along every boundary (BoundaryCharts), drawn with
-// gonum.org/v1/plot.
+// named series against arc length (Chart, or Charts stacked in one
+// picture), such as the potential and the inflow density along every
+// boundary (BoundarySeries), drawn with gonum.org/v1/plot. Physics adapters
+// add series of their own to a Chart.
 //
 // It is the only importer of the raster library. Coordinates come in
 // metres, as everywhere below cmd; only the axes and the scale bar are in

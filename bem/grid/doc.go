@@ -28,6 +28,6 @@
 //	nx, ny := w.Shape(grid.DefaultPoints(len(sol.Mesh.Panels)))
 //	g := grid.Sample(sol, w, nx, ny, grid.Options{})
 //	lo, hi := grid.BoundaryRange(sol)
-//	lines := grid.Contours(g, grid.Levels(lo, hi, 9))
-//	net := grid.Trace(sol, w, 10, grid.TraceOptions{})
+//	lines := grid.Contours(g, grid.Levels(lo, hi, 9), "V") // 9 levels, 10 drops
+//	net := grid.Trace(sol, w, 10, grid.TraceOptions{})    // flux lines, flow-net numbers
 package grid
