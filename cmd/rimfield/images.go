@@ -288,6 +288,12 @@ func headline(j *job) string {
 		if sc.Problem.Physics == geom.Seepage && r.Seepage != nil {
 			return fmt.Sprintf("%s: discharge %s m²/s per metre", name, fmtNum(float64(r.Seepage.Discharge)))
 		}
+		// Two fixed conductors: the capacitance between them, -C12 of the
+		// Maxwell matrix.
+		if e := r.Electrostatic; e != nil && e.Capacitance != nil && len(e.Capacitance.Conductors) == 2 && len(e.Capacitance.Matrix) == 2 && len(e.Capacitance.Matrix[0]) == 2 {
+			c := e.Capacitance
+			return fmt.Sprintf("%s: capacitance %s F/m between %q and %q", name, fmtNum(-float64(c.Matrix[0][1])), c.Conductors[0], c.Conductors[1])
+		}
 	}
 	// The body or edge at the highest fixed potential and what flows in
 	// through it.

@@ -247,14 +247,24 @@ func TestReport(t *testing.T) {
 			t.Errorf("report refers outside itself: %s", ref)
 		}
 	}
-	var r results
+	var r struct {
+		Boundaries []struct {
+			Name   string  `json:"name"`
+			Inflow float64 `json:"inflow"`
+		} `json:"boundaries"`
+		Cautions []struct {
+			Topic string `json:"topic"`
+		} `json:"cautions"`
+		Warnings []string `json:"warnings"`
+		Files    []string `json:"files"`
+	}
 	raw, _ := os.ReadFile(filepath.Join(dir, resultsName))
 	if err := json.Unmarshal(raw, &r); err != nil {
 		t.Fatal(err)
 	}
 	for _, b := range r.Boundaries {
-		if !strings.Contains(html, b.Name) || !strings.Contains(html, fmtNum(float64(b.Inflow))) {
-			t.Errorf("report lacks boundary %q or its inflow %s", b.Name, fmtNum(float64(b.Inflow)))
+		if !strings.Contains(html, b.Name) || !strings.Contains(html, fmtNum(b.Inflow)) {
+			t.Errorf("report lacks boundary %q or its inflow %s", b.Name, fmtNum(b.Inflow))
 		}
 	}
 	for _, c := range r.Cautions {
@@ -282,7 +292,7 @@ func TestReport(t *testing.T) {
 	q := math.NaN()
 	for _, b := range r.Boundaries {
 		if b.Name == "upstream bed" {
-			q = float64(b.Inflow)
+			q = b.Inflow
 		}
 	}
 	k, head := 2e-5, 6.0 // the scene's conductivity and head difference
@@ -315,5 +325,50 @@ func TestChartHook(t *testing.T) {
 	}
 	if w, h, _ := readPNG(t, filepath.Join(dir, "boundary.png")); w != 900 || h != 1050 {
 		t.Errorf("boundary.png is %d x %d, want 900 x 1050 (three charts)", w, h)
+	}
+}
+
+// With two fixed conductors the headline is the capacitance between them,
+// -C12 of results.json's Maxwell matrix; with --no-images the report says
+// that it has no pictures. For the coaxial example -C12 must also match
+// 2 pi eps0 eps_r/ln(b/a) (any electrostatics text) within 1e-3, the
+// default mesh's promised accuracy for integrated results (bem's pipeline
+// tests).
+func TestReportCapacitance(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "out")
+	scene := repoPath("examples", "coaxial", "scene.geojson")
+	if _, _, err := runArgs(t, "solve", scene, "-o", dir, "--report", "--no-images", "-q"); err != nil {
+		t.Fatal(err)
+	}
+	var r struct {
+		Electrostatic struct {
+			Capacitance struct {
+				Matrix [][]float64 `json:"matrix"`
+			} `json:"capacitance"`
+		} `json:"electrostatic"`
+	}
+	raw, _ := os.ReadFile(filepath.Join(dir, resultsName))
+	if err := json.Unmarshal(raw, &r); err != nil {
+		t.Fatal(err)
+	}
+	m := r.Electrostatic.Capacitance.Matrix
+	if len(m) != 2 || len(m[0]) != 2 {
+		t.Fatalf("results.json has no 2 x 2 capacitance matrix")
+	}
+	c := -m[0][1]
+	want := 2 * math.Pi * geom.Eps0 * 2.1 / math.Log(4/1.2) // the example's PTFE between r = 1.2 mm and 4 mm
+	if math.Abs(c-want) > 1e-3*want {
+		t.Errorf("-C12 = %g F/m, want %g", c, want)
+	}
+	data, err := os.ReadFile(filepath.Join(dir, reportName))
+	if err != nil {
+		t.Fatal(err)
+	}
+	html := string(data)
+	if !strings.Contains(html, "capacitance "+fmtNum(c)+" F/m between") {
+		t.Errorf("report headline lacks the capacitance %s F/m", fmtNum(c))
+	}
+	if !strings.Contains(html, "No pictures") || strings.Contains(html, "data:image/png") {
+		t.Error("a report with --no-images must say it has no pictures and embed none")
 	}
 }
