@@ -119,7 +119,8 @@ func TestContoursSaddle(t *testing.T) {
 
 // Masked samples: a cell with a NaN corner is skipped, so a level curve
 // of u = x crossing a masked square is cut into two open lines that stop
-// short of it.
+// short of it. u is linear, so the interpolated vertices are exact up to
+// rounding (1e-12).
 func TestContoursMasked(t *testing.T) {
 	w := Window{Min: r2.Vec{X: 0, Y: 0}, Max: r2.Vec{X: 1, Y: 1}}
 	g := synthetic(w, 11, 11, func(p r2.Vec) float64 {
