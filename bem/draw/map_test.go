@@ -108,6 +108,10 @@ func keep(t *testing.T, name string, data []byte) {
 
 // checkPNG decodes a PNG and checks its size and that it holds at least
 // minColours distinct colours (a blank or single-colour picture fails).
+// Chosen well below what the pictures hold and well above a blank one: a
+// field map shows hundreds of colour-map entries (50 asked), a chart its
+// series colours, grey grid and anti-aliased text (8 asked), a blank
+// picture one.
 func checkPNG(t *testing.T, data []byte, w, h, minColours int) {
 	t.Helper()
 	img, err := png.Decode(bytes.NewReader(data))
