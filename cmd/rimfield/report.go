@@ -84,6 +84,12 @@ var physicsUnits = map[string]string{
 	"piping_safety": "1", "uplift_force": "kN/m", "uplift_x": "m",
 	"peak_field.value": "V/m", "peak_field.x": "m", "peak_field.y": "m",
 	"lift_coefficient": "1", "circulation": "m^2/s", "moment_coefficient": "1", "reference_chord": "m",
+	// electrostatic keys beyond the contract (electro.go)
+	"partial_capacitance.mutual": "F/m", "partial_capacitance.to_ground": "F/m", "capacitance_asymmetry": "1",
+	"energy_J_per_m": "J/m", "forces.fx": "N/m", "forces.fy": "N/m",
+	"breakdown.breakdown_field": "V/m", "breakdown.peak_field": "V/m", "breakdown.x": "m", "breakdown.y": "m", "breakdown.ratio": "1",
+	"peak_refinement.coarse": "V/m", "peak_refinement.fine": "V/m", "peak_refinement.ratio": "1",
+	"singular_corners.x": "m", "singular_corners.y": "m", "opening_deg": "degrees", "exponent": "1",
 }
 
 func buildReport(j *job) (*reportData, error) {
@@ -111,7 +117,7 @@ func buildReport(j *job) (*reportData, error) {
 	}
 	for _, rg := range r.Regions {
 		name := rg.Name
-		if rg.Background {
+		if rg.Background && !strings.Contains(name, "background") {
 			name += " (background)"
 		}
 		d.Regions = append(d.Regions, regionRow{name, fmtNum(float64(rg.Kx)), fmtNum(float64(rg.Ky))})
@@ -184,6 +190,9 @@ func flatten(section string, v any) ([]valueRow, *matrixTable, error) {
 			}
 			sort.Strings(keys)
 			for _, k := range keys {
+				if k == "warnings" {
+					continue // listed with the other warnings
+				}
 				walk(path+"."+k, k, t[k])
 			}
 		case []any:
