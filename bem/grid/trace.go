@@ -99,6 +99,9 @@ const (
 	// uniformTol: a potential range below uniformTol times the largest
 	// potential is taken as no potential difference (rounding).
 	uniformTol = 1e-9
+	// minStep: a line whose step the error control drives below this
+	// fraction of the window diagonal has met a stagnation point and ends.
+	minStep = 1e-7
 	// denseSpacing: accepted steps are filled in with interpolated points
 	// no farther apart than this fraction of the window diagonal.
 	denseSpacing = 0.004
@@ -359,6 +362,11 @@ func (tr *tracer) trace(s seed) Line {
 		err := math.Hypot(e.X, e.Y)
 		if err > tr.tol {
 			h *= math.Max(0.2, 0.9*math.Pow(tr.tol/err, 0.2))
+			if h < minStep*tr.diag {
+				// The direction turns abruptly: a stagnation point, where
+				// the line ends.
+				return ln
+			}
 			continue
 		}
 		if !tr.w.Contains(xn) {

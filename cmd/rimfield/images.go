@@ -352,7 +352,11 @@ func flowNetText(net *grid.FlowNet, inflowUnit string, explicit bool) string {
 	}
 	s := fmt.Sprintf("Flow net: %.3g flow channels, %d potential drops, shape factor %.4g = q/(k H)", net.Channels, net.Drops, net.ShapeFactor)
 	if !net.Square {
-		s += fmt.Sprintf("; one flux line every %s %s", fmtNum(net.Step), inflowUnit)
+		unit := " " + inflowUnit
+		if inflowUnit == "1" {
+			unit = ""
+		}
+		s += fmt.Sprintf("; one flux line every %s%s of flux", fmtNum(net.Step), unit)
 	}
 	if explicit {
 		s += "; the drops are those of --levels, not the --at equipotentials drawn"
