@@ -196,12 +196,30 @@ func (m *Map) draw(c canvas, W, H float64) {
 	}
 	drawColourBar(c, m.colors(), f.x0+f.pw+st.font*1.2, f.y0, barW, f.ph, lo, hi, over, under, levels, m.Label, st)
 
-	// Title and subtitle, left-aligned with the plot.
+	// Title and subtitle, left-aligned with the plot and shrunk to fit the
+	// picture's width.
 	y := shift + st.font*0.8 + st.title
-	c.text(m.Title, f.x0, y, st.title, black, 0, 0, 0)
-	if m.Subtitle != "" {
-		c.text(m.Subtitle, f.x0, y+st.font*1.5, st.font, greyText, 0, 0, 0)
+	line := func(s string, y, size float64, col color.Color) {
+		x := f.x0
+		if w, _ := c.measure(s, size); x+w > W-st.font*0.5 {
+			x = st.font * 0.5 // start at the picture's left edge when that makes it fit
+		}
+		c.text(s, x, y, fitSize(c, s, size, W-x-st.font*0.5), col, 0, 0, 0)
 	}
+	line(m.Title, y, st.title, black)
+	if m.Subtitle != "" {
+		line(m.Subtitle, y+st.font*1.5, st.font, greyText)
+	}
+}
+
+// fitSize returns the font size, at most size and at least 6, at which s
+// fits into width.
+func fitSize(c canvas, s string, size, width float64) float64 {
+	w, _ := c.measure(s, size)
+	if w <= width || w == 0 {
+		return size
+	}
+	return math.Max(6, size*width/w)
 }
 
 func clamp(x, lo, hi float64) float64 { return math.Min(hi, math.Max(lo, x)) }
