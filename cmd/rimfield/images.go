@@ -23,7 +23,40 @@ const (
 )
 
 func init() {
-	artifacts = append(artifacts, artifact{name: "pictures", image: true, files: pictureFiles})
+	artifacts = append(artifacts,
+		artifact{name: "flow net", files: flowNetFiles},
+		artifact{name: "pictures", image: true, files: pictureFiles})
+}
+
+// flowNetInfo is the flow net of results.json: with equipotentials at
+// equal potential drops and flux lines at equal flux k dH the net is made of
+// curvilinear squares, and q = k H channels/drops.
+type flowNetInfo struct {
+	Channels     number `json:"channels"`     // 1: inflow over the flux per channel k dH
+	Drops        int    `json:"drops"`        // potential drops: --levels + 1
+	ShapeFactor  number `json:"shape_factor"` // 1: channels/drops = inflow/(k H)
+	Inflow       number `json:"inflow"`       // units.inflow: through fixed-potential and flux boundaries
+	Head         number `json:"head"`         // units.potential: highest minus lowest boundary potential
+	Conductivity number `json:"conductivity"` // units.conductivity: sqrt(kx ky) of the net's region
+}
+
+// flowNetFiles traces the flux lines (kept for the pictures) and puts the
+// flow net's numbers into results.json; it writes no file.
+func flowNetFiles(j *job) ([]outputFile, error) {
+	pj := j.pics
+	if pj == nil {
+		pj = &pictureJob{}
+		if err := pj.check(); err != nil {
+			return nil, err
+		}
+		j.pics = pj
+	}
+	pj.net = grid.Trace(j.sol, j.window(), j.levels+1, grid.TraceOptions{})
+	if n := pj.net; pj.res != nil && n.Channels > 0 {
+		pj.res.FlowNet = &flowNetInfo{Channels: number(n.Channels), Drops: n.Drops, ShapeFactor: number(n.ShapeFactor),
+			Inflow: number(n.Inflow), Head: number(n.Head), Conductivity: number(n.Conductivity)}
+	}
+	return nil, nil
 }
 
 // pictureJob is what the pictures and the report share within one solve:
@@ -174,8 +207,11 @@ func pictureFiles(j *job) ([]outputFile, error) {
 	lo, hi := grid.BoundaryRange(j.sol)
 	levels := j.contourLevels(lo, hi)
 	contours := grid.Contours(g, levels, units.Potential)
-	net := grid.Trace(j.sol, g.Window, j.levels+1, grid.TraceOptions{})
-	pj.net = net
+	net := pj.net
+	if net == nil {
+		net = grid.Trace(j.sol, g.Window, j.levels+1, grid.TraceOptions{})
+		pj.net = net
+	}
 	var lines [][]r2.Vec
 	for _, l := range net.Lines {
 		lines = append(lines, l.Points)

@@ -257,6 +257,11 @@ func TestReport(t *testing.T) {
 		} `json:"cautions"`
 		Warnings []string `json:"warnings"`
 		Files    []string `json:"files"`
+		FlowNet  *struct {
+			Channels    float64 `json:"channels"`
+			Drops       int     `json:"drops"`
+			ShapeFactor float64 `json:"shape_factor"`
+		} `json:"flow_net"`
 	}
 	raw, _ := os.ReadFile(filepath.Join(dir, resultsName))
 	if err := json.Unmarshal(raw, &r); err != nil {
@@ -298,6 +303,13 @@ func TestReport(t *testing.T) {
 	k, head := 2e-5, 6.0 // the scene's conductivity and head difference
 	if want := fmtNum(q / (k * head)); math.IsNaN(q) || !strings.Contains(html, want) {
 		t.Errorf("report does not show the shape factor q/(k H) = %s", want)
+	}
+	// results.json carries the same numbers: 11 levels give 12 drops, and
+	// channels/drops is the shape factor (to rounding).
+	if fn := r.FlowNet; fn == nil {
+		t.Error("results.json has no flow_net")
+	} else if want := q / (k * head); fn.Drops != 12 || math.Abs(fn.ShapeFactor-want) > 1e-12*want || math.Abs(fn.Channels/12-fn.ShapeFactor) > 1e-12*want {
+		t.Errorf("flow_net %+v, want 12 drops and shape factor %g", *fn, want)
 	}
 }
 

@@ -49,6 +49,8 @@ type results struct {
 	Electrostatic *electrostaticSection `json:"electrostatic,omitempty"`
 	Seepage       *seepageSection       `json:"seepage,omitempty"`
 	Flow          *flowSection          `json:"flow,omitempty"`
+	// FlowNet holds the flow net's numbers (images.go), when flux flows.
+	FlowNet *flowNetInfo `json:"flow_net,omitempty"`
 
 	// Files lists every file this run wrote into the output directory,
 	// results.json included; the next run replaces or removes them.
@@ -178,8 +180,8 @@ var pendingPhysics = map[geom.Physics]struct {
 	msg      string
 	blocking bool
 }{
-	geom.Seepage:       {msg: "the seepage section (discharge, exit gradient, uplift) is not computed by this version yet"},
-	geom.Flow:          {msg: "flow scenes cannot be solved by this version yet: the uniform stream and the Kutta condition are not applied (rimfield check validates the scene)", blocking: true},
+	geom.Seepage: {msg: "the seepage section (discharge, exit gradient, uplift) is not computed by this version yet"},
+	geom.Flow:    {msg: "flow scenes cannot be solved by this version yet: the uniform stream and the Kutta condition are not applied (rimfield check validates the scene)", blocking: true},
 }
 
 // unsupported returns an error when a physics cannot be solved yet.
