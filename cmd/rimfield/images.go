@@ -235,9 +235,13 @@ func pictureFiles(j *job) ([]outputFile, error) {
 	fld := &draw.Map{Grid: g, Values: mag, FromZero: true, Clip: 0.99, Label: fieldName + " (" + fieldUnit + ")",
 		Title:    fmt.Sprintf("%s: largest on the %d x %d sampling grid %s%s", capitalise(fieldName), g.NX, g.NY, fmtNum(peak), unitText),
 		Subtitle: sub, Scene: sc}
-	if at >= 0 {
-		fld.Marker = &draw.Marker{At: g.Point(at%g.NX, at/g.NX), Text: "peak " + fmtNum(peak) + unitText}
-	} else {
+	if sp := surfacePeak(j); sp != nil {
+		// The physics found the peak on the conductors' surfaces, which the
+		// grid, stopping short of the boundary, cannot see: mark that one.
+		fld.Title = fmt.Sprintf("%s: peak %s%s on %q (grid maximum %s%s)", capitalise(fieldName),
+			fmtNum(float64(sp.Value)), unitText, sp.Boundary, fmtNum(peak), unitText)
+		fld.Marker = &draw.Marker{At: r2.Vec{X: float64(sp.X), Y: float64(sp.Y)}, Text: "peak " + fmtNum(float64(sp.Value)) + unitText}
+	} else if at >= 0 {
 		j.warnings = append(j.warnings, "field.png has no peak: no grid sample lies in the domain; give a larger --image-size or check the scene")
 	}
 
@@ -413,4 +417,17 @@ func capitalise(s string) string {
 		return s
 	}
 	return strings.ToUpper(s[:1]) + s[1:]
+}
+
+// surfacePeak returns the peak field on the boundary that the physics
+// reported in results.json (electrostatics: on the conductors), or nil.
+func surfacePeak(j *job) *peakField {
+	if j.pics == nil || j.pics.res == nil || j.pics.res.Electrostatic == nil {
+		return nil
+	}
+	pk := j.pics.res.Electrostatic.PeakField
+	if pk == nil || math.IsNaN(float64(pk.Value)) || math.IsInf(float64(pk.Value), 0) {
+		return nil
+	}
+	return pk
 }
