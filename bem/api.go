@@ -44,15 +44,17 @@ type Solution struct {
 	Floating []float64
 	// Const holds, per region, the constant of its representation: the
 	// potential at infinity for the background of an open scene, a
-	// discretisation residual (ideally 0) for a closed region.
+	// discretisation residual (ideally 0) for a closed region (the largest
+	// over its connected parts).
 	Const []float64
 	// Cond is the estimated condition number (1-norm) of the scaled system.
 	Cond float64
 	// Warnings lists numerical concerns, one sentence each.
 	Warnings []string
 
-	pr     *problem
-	slopes [][]float64 // per region, per side: du/ds for the near-field correction
+	pr        *problem
+	partConst []float64   // per connected part: its constant
+	slopes    [][]float64 // per part, per side: du/ds for the near-field correction
 }
 
 // OwnerResult is the integrated result on one body or edge.

@@ -21,6 +21,7 @@ type region struct {
 	image bool    // grounded plane y = groundY: image kernel
 	gy    float64
 	open  bool // unbounded (the background of an open scene)
+	reg   int  // index of the layout region (a part knows the region it belongs to)
 	// constCol is the column of the region's constant, or -1 when it is fixed at 0.
 	constCol int
 	// sides lists the bounding panels.
@@ -81,9 +82,13 @@ type slot struct {
 }
 
 // problem is the discrete problem: regions, slots, extra unknowns and rows.
+// A layout region may fall into several connected parts (a MultiPolygon
+// region, a cavity in a body); each part has its own integral equation and
+// constant, so that each stays regular at the degenerate scale.
 type problem struct {
 	m       *mesh.Mesh
-	regions []region
+	regions []region // per layout region: material, and all its sides
+	parts   []region // the connected parts of the regions, each with its own sides
 	uSlot   []slot
 	fSlot   []slot
 	fScale  []float64 // column scale: F = fScale * x
@@ -105,8 +110,8 @@ const (
 
 type row struct {
 	kind   rowKind
-	region int
-	side   int     // index into regions[region].sides (collocation)
+	region int     // index into parts (collocation, balance)
+	side   int     // index into parts[region].sides (collocation)
 	owner  int     // floating owner
 	scale  float64 // the row is multiplied by this
 }
@@ -202,25 +207,26 @@ func newProblem(m *mesh.Mesh) (*problem, error) {
 		}
 	}
 	for i := range pr.regions {
+		pr.regions[i].reg = i
 		pr.regions[i].link()
-	}
-	// Region constants: the potential at infinity of the background (an
-	// unknown when some potential is fixed and no grounded plane holds it at
-	// 0), the residual constant of every closed region.
-	for i := range pr.regions {
-		r := &pr.regions[i]
-		r.constCol = -1
-		if len(r.sides) == 0 {
-			continue
+		if len(pr.regions[i].sides) > 0 {
+			pr.parts = append(pr.parts, pr.regions[i].components()...)
 		}
+	}
+	// Constants: the potential at infinity of the unbounded part (an
+	// unknown when some potential is fixed and no grounded plane holds it at
+	// 0), the residual constant of every bounded part.
+	for i := range pr.parts {
+		r := &pr.parts[i]
+		r.constCol = -1
 		if !r.open || (anyFixed && !r.image) {
 			r.constCol = newCol()
 		}
 	}
 	pr.nUnk = col
 	// Rows.
-	for i := range pr.regions {
-		for s := range pr.regions[i].sides {
+	for i := range pr.parts {
+		for s := range pr.parts[i].sides {
 			pr.rows = append(pr.rows, row{kind: rowCollocation, region: i, side: s, scale: 1})
 		}
 	}
@@ -238,9 +244,9 @@ func newProblem(m *mesh.Mesh) (*problem, error) {
 		}
 		pr.rows = append(pr.rows, row{kind: rowFloating, owner: o, scale: 1 / k})
 	}
-	for i := range pr.regions {
-		if pr.regions[i].constCol >= 0 {
-			pr.rows = append(pr.rows, row{kind: rowBalance, region: i, scale: 1 / pr.regions[i].kbar})
+	for i := range pr.parts {
+		if pr.parts[i].constCol >= 0 {
+			pr.rows = append(pr.rows, row{kind: rowBalance, region: i, scale: 1 / pr.parts[i].kbar})
 		}
 	}
 	if len(pr.rows) != pr.nUnk {
@@ -352,7 +358,7 @@ func (pr *problem) fillRow(i int, arow, brow []float64) {
 	}
 	switch rw.kind {
 	case rowCollocation:
-		r := &pr.regions[rw.region]
+		r := &pr.parts[rw.region]
 		me := r.sides[rw.side]
 		x := pr.m.Panels[me.panel].Mid()
 		// 1/2 u(x) + sum_k dl_k u_k - sum_k sl_k F_k - C = 0, with F_k the
@@ -374,7 +380,7 @@ func (pr *problem) fillRow(i int, arow, brow []float64) {
 			}
 		}
 	case rowBalance:
-		r := &pr.regions[rw.region]
+		r := &pr.parts[rw.region]
 		for k := range r.sides {
 			s := &r.sides[k]
 			put(pr.fSlot[s.panel], rw.scale*s.sign*pr.m.Panels[s.panel].Length()*pr.colScale(s.panel))
@@ -407,4 +413,99 @@ func (r *region) link() {
 			r.sides[n].prev = k
 		}
 	}
+}
+
+// components splits a region's sides into its connected parts. The sides
+// form closed loops (region on the left); a counter-clockwise loop is the
+// outer boundary of a bounded part and a clockwise loop a hole, which
+// belongs to the smallest counter-clockwise loop around it, or to the
+// unbounded part of an open region when none is. If some side is on no
+// closed loop, or a hole of a bounded region has no outer loop, the region
+// stays in one piece (as sound, only without the per-part constants).
+func (r *region) components() []region {
+	whole := []region{*r}
+	seen := make([]bool, len(r.sides))
+	var loops [][]int
+	for k := range r.sides {
+		if seen[k] {
+			continue
+		}
+		var loop []int
+		for c := k; !seen[c]; c = r.sides[c].next {
+			seen[c] = true
+			loop = append(loop, c)
+			if r.sides[c].next < 0 {
+				return whole
+			}
+		}
+		if loop[0] != k || r.sides[loop[len(loop)-1]].next != k {
+			return whole
+		}
+		loops = append(loops, loop)
+	}
+	if len(loops) == 1 {
+		return whole
+	}
+	area := make([]float64, len(loops))
+	for i, l := range loops {
+		for _, k := range l {
+			area[i] += 0.5 * r2.Cross(r.sides[k].frame.a, r.sides[k].frame.b)
+		}
+	}
+	// owner[i]: the outer loop a hole belongs to, -1 for the unbounded part.
+	owner := make([]int, len(loops))
+	for i, l := range loops {
+		owner[i] = i
+		if area[i] > 0 {
+			continue
+		}
+		owner[i] = -1
+		f := r.sides[l[0]].frame
+		probe := r2.Scale(0.5, r2.Add(f.a, f.b))
+		best := math.Inf(1)
+		for j, m := range loops {
+			if area[j] > 0 && area[j] < best && r.loopWinding(m, probe) == 1 {
+				owner[i], best = j, area[j]
+			}
+		}
+		if owner[i] < 0 && !r.open {
+			return whole
+		}
+	}
+	var parts []region
+	index := map[int]int{} // outer loop (or -1) -> part
+	for i := range loops {
+		o := owner[i]
+		if _, ok := index[o]; !ok {
+			index[o] = len(parts)
+			p := *r
+			p.sides = nil
+			p.open = o < 0
+			parts = append(parts, p)
+		}
+		p := &parts[index[o]]
+		for _, k := range loops[i] {
+			p.sides = append(p.sides, r.sides[k])
+		}
+	}
+	for i := range parts {
+		parts[i].link()
+	}
+	return parts
+}
+
+// loopWinding returns the winding number of the loop of sides about p.
+func (r *region) loopWinding(loop []int, p r2.Vec) int {
+	w := 0
+	for _, k := range loop {
+		a, b := r.sides[k].frame.a, r.sides[k].frame.b
+		if a.Y <= p.Y {
+			if b.Y > p.Y && r2.Cross(r2.Sub(b, a), r2.Sub(p, a)) > 0 {
+				w++
+			}
+		} else if b.Y <= p.Y && r2.Cross(r2.Sub(b, a), r2.Sub(p, a)) < 0 {
+			w--
+		}
+	}
+	return w
 }

@@ -38,6 +38,11 @@
 // when none is, C = 0 fixes the gauge and the far field carries the log
 // term of the given net inflow: u = -(Q/(2 pi k)) ln(|x|/1 m) + O(1/|x|).
 //
+// Each connected part of a region (a MultiPolygon region's pieces, a cavity
+// inside a body, the unbounded outside) has its own equations and constant:
+// its panels form closed loops, counter-clockwise loops bound a part from
+// outside and clockwise loops are its holes.
+//
 // Floating boundaries share one unknown potential and add the equation
 // sum F_j L_j = Q. An interface panel carries u and F (into its Left region;
 // its Right region sees -F) and one equation per side. A grounded plane

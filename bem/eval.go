@@ -34,29 +34,34 @@ func (r *region) winding(pr *problem, p r2.Vec) int {
 // (inside a body, outside every region of a closed scene, or below a
 // grounded plane).
 func (s *Solution) Locate(p r2.Vec) int {
+	if k := s.locatePart(p); k >= 0 {
+		return s.pr.parts[k].reg
+	}
+	return geom.Outside
+}
+
+// locatePart returns the index of the connected part that contains p, or -1.
+func (s *Solution) locatePart(p r2.Vec) int {
 	pr := s.pr
-	for i := range pr.regions {
-		r := &pr.regions[i]
-		if r.open {
-			continue
-		}
-		if len(r.sides) > 0 && r.winding(pr, p) == 1 {
+	for i := range pr.parts {
+		r := &pr.parts[i]
+		if !r.open && r.winding(pr, p) == 1 {
 			return i
 		}
 	}
-	for i := range pr.regions {
-		r := &pr.regions[i]
+	for i := range pr.parts {
+		r := &pr.parts[i]
 		if !r.open {
 			continue
 		}
 		if r.image && p.Y <= r.gy {
-			return geom.Outside
+			return -1
 		}
 		if r.winding(pr, p) == 0 {
 			return i
 		}
 	}
-	return geom.Outside
+	return -1
 }
 
 // Eval returns the potential and its gradient at p, from the boundary
@@ -64,27 +69,21 @@ func (s *Solution) Locate(p r2.Vec) int {
 // exact for the discrete boundary values at any distance from the boundary.
 // Outside the domain it returns NaN values and Region geom.Outside.
 func (s *Solution) Eval(p r2.Vec) Point {
-	reg := s.Locate(p)
-	if reg == geom.Outside {
+	k := s.locatePart(p)
+	if k < 0 {
 		nan := math.NaN()
 		return Point{U: nan, Grad: r2.Vec{X: nan, Y: nan}, Region: geom.Outside}
 	}
-	u, g := s.evalIn(reg, p)
-	return Point{U: u, Grad: g, Region: reg}
+	u, g := s.evalIn(k, p)
+	return Point{U: u, Grad: g, Region: s.pr.parts[k].reg}
 }
 
-// EvalIn evaluates the representation of region reg at p without locating
-// p; p must lie inside that region, off its boundary.
-func (s *Solution) EvalIn(reg int, p r2.Vec) Point {
-	u, g := s.evalIn(reg, p)
-	return Point{U: u, Grad: g, Region: reg}
-}
-
-func (s *Solution) evalIn(reg int, p r2.Vec) (float64, r2.Vec) {
-	r := &s.pr.regions[reg]
-	u := s.Const[reg]
+// evalIn evaluates the representation of part k at p.
+func (s *Solution) evalIn(k int, p r2.Vec) (float64, r2.Vec) {
+	r := &s.pr.parts[k]
+	u := s.partConst[k]
 	var g r2.Vec
-	slopes := s.slopes[reg]
+	slopes := s.slopes[k]
 	X := r.transform(p)
 	for k := range r.sides {
 		sd := &r.sides[k]
@@ -119,9 +118,9 @@ func (s *Solution) evalIn(reg int, p r2.Vec) (float64, r2.Vec) {
 // potentials are constant per boundary and keep slope 0.
 func (s *Solution) computeSlopes() {
 	pr := s.pr
-	s.slopes = make([][]float64, len(pr.regions))
-	for i := range pr.regions {
-		r := &pr.regions[i]
+	s.slopes = make([][]float64, len(pr.parts))
+	for i := range pr.parts {
+		r := &pr.parts[i]
 		sl := make([]float64, len(r.sides))
 		for k := range r.sides {
 			sd := &r.sides[k]

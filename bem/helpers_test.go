@@ -75,6 +75,7 @@ func split(a, b r2.Vec, n int, graded bool) []r2.Vec {
 	for i, t := range ts {
 		out[i] = r2.Add(a, r2.Scale(t, r2.Sub(b, a)))
 	}
+	out[0], out[n] = a, b // exactly, so that neighbouring panels share endpoints
 	return out
 }
 

@@ -239,3 +239,24 @@ func TestRandomSceneInvariants(t *testing.T) {
 		}
 	}
 }
+
+// The cavity case of TestCavityAtDegenerateScale through the whole chain
+// (a body with a hole, a wire in the hole): the mesh's panels share their
+// endpoints exactly, so the cavity becomes its own part; the wire's charge
+// is -2 pi k / ln 2 (coaxial solution; any potential-theory text), 1e-3.
+func TestDefaultCavity(t *testing.T) {
+	sc := &geom.Scene{
+		Problem: geom.Problem{Physics: geom.Laplace, Scale: 1, Open: true, Background: geom.Material{Kx: 1, Ky: 1}},
+		Bodies: []geom.Body{
+			{Name: "body", Polygons: []geom.Polygon{{ring(ngon(r2.Vec{}, 2, 512, true, 0)), ring(ngon(r2.Vec{}, 1, 512, false, 0))}}, Cond: pot(1)},
+			{Name: "wire", Feature: 1, Polygons: []geom.Polygon{{ring(ngon(r2.Vec{}, 0.5, 512, true, 0))}}, Cond: pot(0)},
+		},
+	}
+	sol, lay := solveScene(t, sc, mesh.Options{})
+	if n := len(sol.pr.parts); n != 2 {
+		t.Errorf("%d parts, want 2", n)
+	}
+	if q := sol.Owners()[ownerIndex(t, lay, "wire")].Inflow; relErr(q, -2*math.Pi/math.Log(2)) > 1e-3 {
+		t.Errorf("wire charge %v, want %v", q, -2*math.Pi/math.Log(2))
+	}
+}

@@ -173,3 +173,47 @@ func TestGroundPlaneCylinder(t *testing.T) {
 		t.Errorf("below the plane is not domain")
 	}
 }
+
+// A conductor with a cavity, in open space: an annulus body (cavity radius
+// c, outer radius 2c) at 1 V with a wire of radius c/2 at 0 V inside the
+// cavity. Inside, the coaxial solution gives the wire the charge
+// -2 pi k / ln 2 (any potential-theory text); outside, the lone body at 1 V
+// carries no charge and the potential at infinity is 1. The cavity is a
+// separate part of the background with its own constant, so a cavity of
+// logarithmic capacity 1 (c = 1 m, the degenerate scale) is solved as well
+// as any other (tolerance 1e-5 relative at 512-gons, observed ~3e-8; the
+// polygons' similar shapes keep the ratio exact).
+func TestCavityAtDegenerateScale(t *testing.T) {
+	for _, c := range []float64{0.7, 1, 1.3} {
+		bl := newBuilder(true)
+		bg := bl.region("air", 1, 1, true)
+		body := bl.owner("body", pot(1))
+		wire := bl.owner("wire", pot(0))
+		n := 512
+		// Domain on the left: the body's outer ring clockwise, the cavity wall
+		// counter-clockwise, the wire clockwise.
+		bl.ring(ngon(r2.Vec{}, 2*c, n, false, 0), 1, false, bg, geom.Outside, body, pot(1))
+		bl.ring(ngon(r2.Vec{}, c, n, true, 0), 1, false, bg, geom.Outside, body, pot(1))
+		bl.ring(ngon(r2.Vec{}, c/2, n, false, 0), 1, false, bg, geom.Outside, wire, pot(0))
+		sol, err := Solve(bl.mesh(), nil)
+		if err != nil {
+			t.Fatalf("c=%v: %v", c, err)
+		}
+		want := -2 * math.Pi / math.Log(2)
+		if q := sol.Owners()[wire].Inflow; relErr(q, want) > 1e-5 {
+			t.Errorf("c=%v: wire charge %v, want %v", c, q, want)
+		}
+		if math.Abs(sol.Const[bg]-1) > 1e-6 {
+			t.Errorf("c=%v: potential at infinity %v, want 1", c, sol.Const[bg])
+		}
+		if pt := sol.Eval(r2.Vec{X: 0.75 * c}); math.Abs(pt.U-math.Log(0.75/0.5)/math.Log(2)) > 1e-4 || pt.Region != bg {
+			t.Errorf("c=%v: u in the cavity %v (region %d), want %v", c, pt.U, pt.Region, math.Log(1.5)/math.Log(2))
+		}
+		if pt := sol.Eval(r2.Vec{X: 3 * c}); math.Abs(pt.U-1) > 1e-6 {
+			t.Errorf("c=%v: u outside %v, want 1", c, pt.U)
+		}
+		if n := len(sol.pr.parts); n != 2 {
+			t.Errorf("c=%v: %d parts, want 2 (outside and cavity)", c, n)
+		}
+	}
+}

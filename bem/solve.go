@@ -152,9 +152,18 @@ func (sys *System) solution(x []float64, conds []geom.Condition) *Solution {
 			s.Floating[o] = x[c]
 		}
 	}
-	for i, r := range pr.regions {
+	s.partConst = make([]float64, len(pr.parts))
+	for i, r := range pr.parts {
 		if r.constCol >= 0 {
-			s.Const[i] = x[r.constCol]
+			s.partConst[i] = x[r.constCol]
+		}
+	}
+	// Per layout region: the unbounded part's constant (the potential at
+	// infinity) where there is one, else the largest residual of its parts.
+	for i, r := range pr.parts {
+		c := s.partConst[i]
+		if r.open || (!pr.regions[r.reg].open && math.Abs(c) > math.Abs(s.Const[r.reg])) {
+			s.Const[r.reg] = c
 		}
 	}
 	s.computeSlopes()
