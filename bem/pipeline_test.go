@@ -260,3 +260,32 @@ func TestDefaultCavity(t *testing.T) {
 		t.Errorf("wire charge %v, want %v", q, -2*math.Pi/math.Log(2))
 	}
 }
+
+// Two materials in series through the whole chain with the default mesh:
+// a 2 m x 1 m strip, k = 1 on the left half and k = 4 on the right, 1 V and
+// 0 V on the short sides, insulated top and bottom: inflow 0.8 per metre
+// (series resistances, common practice). The default grading at the
+// junctions of the interface with the walls must hold 1e-3.
+func TestDefaultTwoLayers(t *testing.T) {
+	sc := &geom.Scene{
+		Problem: geom.Problem{Physics: geom.Laplace, Scale: 1},
+		Regions: []geom.Region{
+			{Name: "soft", Polygons: []geom.Polygon{{ring(rect(0, 0, 1, 1))}}, Material: geom.Material{Kx: 1, Ky: 1}},
+			{Name: "hard", Feature: 1, Polygons: []geom.Polygon{{ring(rect(1, 0, 2, 1))}}, Material: geom.Material{Kx: 4, Ky: 4}},
+		},
+		Edges: []geom.Edge{
+			{Name: "hot", Feature: 2, Cond: pot(1), Lines: []geom.Line{{{X: 0, Y: 1}, {X: 0, Y: 0}}}},
+			{Name: "cold", Feature: 3, Cond: pot(0), Lines: []geom.Line{{{X: 2, Y: 0}, {X: 2, Y: 1}}}},
+		},
+	}
+	sol, lay := solveScene(t, sc, mesh.Options{})
+	q := sol.Owners()[ownerIndex(t, lay, "hot")].Inflow
+	if e := relErr(q, 0.8); e > 1e-3 {
+		t.Errorf("inflow %v, want 0.8 (error %.2g)", q, e)
+	} else {
+		t.Logf("inflow %v (error %.2g)", q, e)
+	}
+	if pt := sol.Eval(r2.Vec{X: 1.5, Y: 0.5}); math.Abs(pt.U-0.1) > 1e-4 {
+		t.Errorf("u(1.5, 0.5) = %v, want 0.1", pt.U)
+	}
+}
