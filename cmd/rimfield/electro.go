@@ -118,7 +118,7 @@ func electroResults(j *job, r *results) error {
 // electroSection runs the electrostatic analysis of a solved job and
 // returns the contract's section and the extras.
 func electroSection(j *job) (*electrostaticSection, *electroExtras, error) {
-	o := electro.Options{Refine: len(j.mesh.Panels) <= refineLimit}
+	o := electro.Options{Refine: len(j.mesh.Panels) <= refineLimit, AirDefault: j.airBreakdown}
 	rep, err := electro.Analyse(j.scene, j.system, j.sol, o)
 	if err != nil {
 		return nil, nil, fmt.Errorf("electrostatic results: %w", err)

@@ -154,3 +154,42 @@ func TestElectrostaticExtras(t *testing.T) {
 		t.Errorf("%d breakdown margins without breakdown fields", n)
 	}
 }
+
+// --air-breakdown assumes 3e6 V/m (3 kV/mm, dry air at standard conditions;
+// common practice) for the open background of a wire over a grounded
+// plane; without the flag the background has no breakdown field and no
+// margin is listed. The ratio is the peak field over 3e6.
+func TestAirBreakdownFlag(t *testing.T) {
+	scene := filepath.Join(t.TempDir(), "wire.geojson")
+	if _, _, err := runArgs(t, "new", "wire-over-ground", "-o", scene); err != nil {
+		t.Fatal(err)
+	}
+	for _, air := range []bool{false, true} {
+		dir := filepath.Join(t.TempDir(), "out")
+		args := []string{"solve", scene, "-o", dir, "--quiet", "--no-images"}
+		if air {
+			args = append(args, "--air-breakdown")
+		}
+		if _, _, err := runArgs(t, args...); err != nil {
+			t.Fatal(err)
+		}
+		r := readJSON(t, filepath.Join(dir, "results.json"))
+		list, _ := get(t, r, "electrostatic", "breakdown").([]any)
+		if !air {
+			if len(list) != 0 {
+				t.Errorf("without --air-breakdown: margins %v, want none", list)
+			}
+			continue
+		}
+		if len(list) != 1 {
+			t.Fatalf("with --air-breakdown: margins %v, want one (the background)", list)
+		}
+		peak := num(t, r, "electrostatic", "peak_field", "value")
+		if s := num(t, list[0], "breakdown_field"); s != 3e6 {
+			t.Errorf("breakdown field %v, want 3e6 V/m", s)
+		}
+		if ratio := num(t, list[0], "ratio"); math.Abs(ratio-peak/3e6) > 1e-12*ratio {
+			t.Errorf("ratio %v, want %v", ratio, peak/3e6)
+		}
+	}
+}

@@ -32,8 +32,11 @@ type job struct {
 	// warnings collects what the writers of outputs noticed; they go into
 	// results.json.
 	warnings []string
-	grid     *grid.Grid  // the solution on the default grid, once sampled
-	pics     *pictureJob // picture and report flags, results and pictures (images.go)
+	grid     *grid.Grid // the solution on the default grid, once sampled
+	// airBreakdown assumes the breakdown field of air where the scene gives
+	// none (--air-breakdown).
+	airBreakdown bool
+	pics         *pictureJob // picture and report flags, results and pictures (images.go)
 }
 
 // artifact is an optional group of output files (contours, pictures),
@@ -78,6 +81,7 @@ type solveOptions struct {
 	noImages bool
 	solver   string
 	quiet    bool
+	air      bool
 }
 
 func runSolve(args []string, stdout, stderr io.Writer) error {
@@ -90,6 +94,7 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 	fs.BoolVar(&o.noImages, "no-images", false, "do not draw the PNG pictures")
 	fs.StringVar(&o.solver, "solver", "auto", "linear `SOLVER`: dense (direct LU, exact to rounding), fast (not available yet), or auto (dense)")
 	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing on success (errors still go to stderr)")
+	fs.BoolVar(&o.air, "air-breakdown", false, "electrostatic: assume the breakdown field of air, 3 kV/mm = 3e6 V/m (dry air, standard conditions, gaps of centimetres; common practice), for every region of relative permittivity 1 without a breakdown_field, the background included")
 	pics := addPictureFlags(fs)
 	if helped, err := cl.parse(args, stdout); helped || err != nil {
 		return err
@@ -118,7 +123,7 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 		return fmt.Errorf("solve: %w", err)
 	}
 
-	j := &job{scenePath: pos[0], solverKind: kind, levels: o.levels, pics: pics}
+	j := &job{scenePath: pos[0], solverKind: kind, levels: o.levels, pics: pics, airBreakdown: o.air}
 	j.scene, j.mesh, err = prepare(pos[0], o.panels)
 	if err != nil {
 		return err
