@@ -29,7 +29,13 @@ type Series struct {
 type Chart struct {
 	Title          string
 	XLabel, YLabel string
-	Series         []Series
+	// XUnit and YUnit, when set, are the SI units of the values: the axis
+	// then shows them in the display unit that suits its range
+	// (DisplayFor: 5e-6 C/m^2 as 5 µC/m²) and its label ends with that
+	// unit in parentheses. Empty: the values as they are, the label as
+	// given.
+	XUnit, YUnit string
+	Series       []Series
 	// Clip, in (0.5, 1), limits the y axis to the range between the
 	// 1-Clip and Clip quantiles of all values (widened by a tenth), so that
 	// a few peaks at singular corners do not flatten the rest; the title
@@ -38,7 +44,8 @@ type Chart struct {
 }
 
 // Charts is a column of charts drawn one above the other in one picture,
-// with their left edges aligned.
+// with their left edges aligned and the legends in a column at their
+// right, outside the plots.
 type Charts []*Chart
 
 // series colours: the colour-blind-safe qualitative palette of Okabe & Ito,
@@ -56,53 +63,117 @@ var seriesColours = []color.RGBA{
 
 var seriesDashes = [][]vg.Length{nil, {vg.Points(6), vg.Points(3)}, {vg.Points(2), vg.Points(2)}}
 
-// plot builds the gonum plot of one chart.
-func (c *Chart) plot(fontSize float64) (*plot.Plot, error) {
-	p := plot.New()
-	sans := func(size float64) pfont.Font {
-		f := sansSerif
-		f.Size = vg.Length(size)
-		return f
+func sans(size float64) pfont.Font {
+	f := sansSerif
+	f.Size = vg.Length(size)
+	return f
+}
+
+// dataRange returns the smallest and largest finite x and y of the series.
+func (c *Chart) dataRange() (x0, x1, y0, y1 float64, ok bool) {
+	x0, y0 = math.Inf(1), math.Inf(1)
+	x1, y1 = math.Inf(-1), math.Inf(-1)
+	for _, s := range c.Series {
+		for _, pc := range pieces(s) {
+			for _, p := range pc {
+				x0, x1 = math.Min(x0, p.X), math.Max(x1, p.X)
+				y0, y1 = math.Min(y0, p.Y), math.Max(y1, p.Y)
+				ok = true
+			}
+		}
 	}
+	return x0, x1, y0, y1, ok
+}
+
+// plot builds the gonum plot of one chart, without a legend, and the
+// legend to draw beside it.
+func (c *Chart) plot(fontSize float64) (*plot.Plot, *plot.Legend, error) {
+	for _, s := range c.Series {
+		if len(s.X) != len(s.Y) {
+			return nil, nil, fmt.Errorf("draw: series %q has %d x and %d y values", s.Name, len(s.X), len(s.Y))
+		}
+	}
+	p := plot.New()
 	p.Title.Text = c.Title
 	p.Title.TextStyle.Font = sans(fontSize * 1.15)
-	p.X.Label.Text = c.XLabel
-	p.Y.Label.Text = c.YLabel
 	for _, a := range []*plot.Axis{&p.X, &p.Y} {
 		a.Label.TextStyle.Font = sans(fontSize)
 		a.Tick.Label.Font = sans(fontSize * 0.85)
 	}
-	p.Legend.TextStyle.Font = sans(fontSize * 0.9)
-	p.Legend.Top = true
+	p.X.Tick.Marker = niceTicker{n: 10}
+	p.Y.Tick.Marker = niceTicker{n: 8}
+	leg := plot.NewLegend()
+	leg.TextStyle.Font = sans(fontSize * 0.9)
+	leg.Top, leg.Left = true, true
+	leg.ThumbnailWidth = vg.Length(fontSize * 2)
+
+	// The axes' ranges in SI, then the display units that suit them.
+	x0, x1, y0, y1, ok := c.dataRange()
+	if !ok {
+		x0, x1, y0, y1 = 0, 1, 0, 1
+	}
+	clipped := false
+	if lo, hi, ok := c.clipRange(); ok {
+		y0, y1, clipped = lo, hi, true
+	} else {
+		// Some room above and below, so that a flat curve at the top or
+		// the bottom does not merge with the frame.
+		pad := 0.04 * (y1 - y0)
+		if !(pad > 0) {
+			pad = math.Abs(y0) * 0.1
+		}
+		if !(pad > 0) {
+			pad = 1 // every value 0
+		}
+		y0, y1 = y0-pad, y1+pad
+	}
+	if x0 >= 0 && x0 < 0.05*(x1-x0) {
+		x0 = 0 // arc lengths and the like start at 0
+	}
+	xd, yd := Display{Div: 1}, Display{Div: 1}
+	p.X.Label.Text, p.Y.Label.Text = c.XLabel, c.YLabel
+	if c.XUnit != "" {
+		xd = DisplayFor(c.XUnit, math.Max(math.Abs(x0), math.Abs(x1)))
+		p.X.Label.Text = xd.Label(c.XLabel)
+	}
+	if c.YUnit != "" {
+		yd = DisplayFor(c.YUnit, math.Max(math.Abs(y0), math.Abs(y1)))
+		p.Y.Label.Text = yd.Label(c.YLabel)
+	}
+	p.X.Min, p.X.Max = x0/xd.Div, x1/xd.Div
+	p.Y.Min, p.Y.Max = y0/yd.Div, y1/yd.Div
+
 	p.Add(plotter.NewGrid())
 	for k, s := range c.Series {
-		if len(s.X) != len(s.Y) {
-			return nil, fmt.Errorf("draw: series %q has %d x and %d y values", s.Name, len(s.X), len(s.Y))
-		}
 		col := seriesColours[k%len(seriesColours)]
 		dash := seriesDashes[(k/len(seriesColours))%len(seriesDashes)]
 		first := true
 		for _, piece := range pieces(s) {
+			for i := range piece {
+				piece[i].X /= xd.Div
+				piece[i].Y /= yd.Div
+			}
 			l, err := plotter.NewLine(piece)
 			if err != nil {
-				return nil, fmt.Errorf("draw: series %q: %v", s.Name, err)
+				return nil, nil, fmt.Errorf("draw: series %q: %v", s.Name, err)
 			}
 			l.Color = col
 			l.Width = vg.Points(math.Max(1, fontSize/8))
 			l.Dashes = dash
 			p.Add(l)
 			if first && s.Name != "" {
-				p.Legend.Add(s.Name, l)
+				leg.Add(s.Name, l)
 				first = false
 			}
 		}
 	}
-	// After the lines: adding a plotter widens the axes to its data.
-	if lo, hi, ok := c.clipRange(); ok {
-		p.Y.Min, p.Y.Max = lo, hi
+	// Adding a plotter widens the axes to its data: set the ranges again.
+	p.X.Min, p.X.Max = x0/xd.Div, x1/xd.Div
+	p.Y.Min, p.Y.Max = y0/yd.Div, y1/yd.Div
+	if clipped {
 		p.Title.Text += fmt.Sprintf(" (axis cut at the %g%% and %g%% quantiles)", math.Round(1000*(1-c.Clip))/10, math.Round(1000*c.Clip)/10)
 	}
-	return p, nil
+	return p, &leg, nil
 }
 
 // clipRange returns the clipped y range, if clipping applies and cuts
@@ -196,18 +267,43 @@ func (cs Charts) draw(dc vgdraw.Canvas, width, height int) error {
 	}
 	fs := clamp(math.Min(float64(width), float64(height)/float64(len(cs)))/40, 9, 18)
 	plots := make([][]*plot.Plot, len(cs))
+	legends := make([]*plot.Legend, len(cs))
+	// The legends go in a column at the right, outside the plots, so that
+	// they never hide a curve: as wide as the longest name.
+	face := pfont.DefaultCache.Lookup(sans(fs*0.9), vg.Length(fs*0.9))
+	legendW := 0.0
 	for i, c := range cs {
-		p, err := c.plot(fs)
+		p, leg, err := c.plot(fs)
 		if err != nil {
 			return err
 		}
 		plots[i] = []*plot.Plot{p}
+		legends[i] = leg
+		for _, s := range c.Series {
+			legendW = math.Max(legendW, face.Width(s.Name).Points())
+		}
 	}
+	if legendW > 0 {
+		legendW += fs * 3.5 // thumbnail and gaps
+	}
+	legendW = math.Min(legendW, 0.3*float64(width))
 	pad := vg.Length(fs)
 	t := vgdraw.Tiles{Rows: len(cs), Cols: 1, PadTop: pad, PadBottom: pad, PadLeft: pad, PadRight: pad * 1.5, PadY: pad * 1.5}
-	canvases := plot.Align(plots, t, dc)
+	plotArea := vgdraw.Crop(dc, 0, -vg.Length(legendW), 0, 0)
+	canvases := plot.Align(plots, t, plotArea)
 	for i := range plots {
-		plots[i][0].Draw(canvases[i][0])
+		p := plots[i][0]
+		p.Draw(canvases[i][0])
+		if legendW == 0 {
+			continue
+		}
+		// Beside the plot's data area, top-aligned with it.
+		da := p.DataCanvas(canvases[i][0])
+		lc := vgdraw.Canvas{Canvas: dc.Canvas, Rectangle: vg.Rectangle{
+			Min: vg.Point{X: dc.Max.X - vg.Length(legendW) + pad*0.2, Y: da.Min.Y},
+			Max: vg.Point{X: dc.Max.X - pad*0.5, Y: da.Max.Y},
+		}}
+		legends[i].Draw(lc)
 	}
 	return nil
 }

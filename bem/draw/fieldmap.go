@@ -7,6 +7,7 @@ import (
 	"io"
 	"math"
 	"sort"
+	"strings"
 
 	"github.com/rimfield/rimfield/bem/grid"
 	"github.com/rimfield/rimfield/geom"
@@ -15,8 +16,9 @@ import (
 
 // Map is a picture of a scalar field over the scene: the field in colour
 // with a colour bar, equipotentials and flux lines over it, the bodies
-// filled and named, the edges marked, a scale bar, axes in the scene's unit
-// and a title.
+// filled and named, the regions outlined and named where the name fits
+// inside, the edges marked, axes and a scale bar in the scene's unit and a
+// title.
 type Map struct {
 	// Grid gives the sample positions and Values one value per sample
 	// (Grid.U for the potential, Grid.Magnitude() for the field strength);
@@ -31,18 +33,26 @@ type Map struct {
 	Clip   float64
 	// FromZero starts the automatic colour range at 0 (for magnitudes).
 	FromZero bool
-	// Label names the quantity and its unit under the colour bar:
-	// "potential (V)".
+	// Label names the quantity beside the colour bar: "potential". With
+	// Unit empty it should carry its unit too: "potential (V)".
 	Label string
-	// Title is the first line, the headline result; Subtitle a second,
-	// smaller line.
+	// Unit, when set, is the SI unit of Values: the colour bar then shows
+	// them in the display unit that suits their range (DisplayFor: kV for
+	// thousands of volts, kV/mm for strong fields) and the label ends with
+	// it in parentheses.
+	Unit string
+	// Title is the first line, the headline result; Subtitle smaller lines
+	// below it: "\n" starts a new line, and a line too long for the
+	// picture is broken in two (three lines at most).
 	Title, Subtitle string
 	// Contours and Lines (flux lines) are drawn over the field, in metres.
 	Contours []geom.LevelLine
 	Lines    [][]r2.Vec
 	// Marker, when not nil, circles a point and names it.
 	Marker *Marker
-	// Scene gives the bodies, regions and edges to draw, the coordinate
+	// Scene gives the bodies, regions and edges to draw (the scene's
+	// medium, its only region or the one that holds all the others, is not
+	// named), the coordinate
 	// unit for the axes and the scale bar (Problem.Unit, Problem.Scale) and
 	// whether the domain is open. Nil draws the field alone, in metres.
 	Scene *geom.Scene
@@ -145,6 +155,11 @@ func (m *Map) draw(c canvas, W, H float64) {
 	st.line = math.Max(1, u/700)
 
 	lo, hi, over, under := m.colourRange()
+	disp, label := Display{Div: 1}, m.Label
+	if m.Unit != "" {
+		disp = DisplayFor(m.Unit, math.Max(math.Abs(lo), math.Abs(hi)))
+		label = disp.Label(m.Label)
+	}
 	unit, scale := "m", 1.0
 	if m.Scene != nil && m.Scene.Problem.Scale > 0 {
 		scale = m.Scene.Problem.Scale
@@ -153,23 +168,30 @@ func (m *Map) draw(c canvas, W, H float64) {
 		}
 	}
 
-	// Layout: title on top, axes left and bottom, colour bar right.
-	top := 1.0*st.font + st.title*1.6
-	if m.Subtitle != "" {
-		top += st.font * 1.5
-	}
+	// Layout: title on top, axes left and bottom, colour bar right. The
+	// subtitle's lines are broken to fit the width from the plot's left
+	// edge, which moves with their number: lay out twice.
 	left := st.font * 5.5
 	bottom := st.font * 4
 	barW := st.font * 1.2
-	right := st.font*1.2 + barW + st.font*0.6 + maxLabelWidth(c, lo, hi, st.small) + st.font*2.4
+	right := st.font*1.2 + barW + st.font*0.6 + maxLabelWidth(c, lo/disp.Div, hi/disp.Div, st.small) + st.font*2.4
 	win := m.Grid.Window
 	size := win.Size()
-	aw, ah := W-left-right, H-top-bottom
-	s := math.Min(aw/size.X, ah/size.Y)
-	f := frame{pw: size.X * s, ph: size.Y * s, win: win, s: s}
-	f.x0 = left + (aw-f.pw)/2
-	shift := (ah - f.ph) / 2 // centre title and plot together
-	f.y0 = top + shift
+	layout := func(lines int) (f frame, top, shift float64) {
+		top = 1.0*st.font + st.title*1.6 + float64(lines)*st.font*1.5
+		aw, ah := W-left-right, H-top-bottom
+		s := math.Min(aw/size.X, ah/size.Y)
+		f = frame{pw: size.X * s, ph: size.Y * s, win: win, s: s}
+		f.x0 = left + (aw-f.pw)/2
+		shift = (ah - f.ph) / 2 // centre title and plot together
+		f.y0 = top + shift
+		return f, top, shift
+	}
+	sub := subtitleLines(c, m.Subtitle, st.font, W-left-st.font*0.5)
+	f, _, shift := layout(len(sub))
+	if again := subtitleLines(c, m.Subtitle, st.font, W-f.x0-st.font*0.5); len(again) == len(sub) {
+		sub = again
+	}
 
 	m.drawField(c, f, lo, hi)
 	geo := m.sceneIn(f.win)
@@ -179,22 +201,25 @@ func (m *Map) draw(c canvas, W, H float64) {
 			c.stroke(contour, st.line, nil, false, f.pxs(piece))
 		}
 	}
+	var placed []box // what labels must not cover: arrowheads, the marker
 	for _, l := range m.Lines {
 		for _, piece := range clipLine(l, f.win) {
-			drawFluxLine(c, f, piece, st)
+			if b, ok := drawFluxLine(c, f, piece, st); ok {
+				placed = append(placed, b)
+			}
 		}
 	}
-	m.drawLabels(c, f, st, geo)
 	if m.Marker != nil {
-		drawMarker(c, f, *m.Marker, st)
+		placed = append(placed, drawMarker(c, f, *m.Marker, st)...)
 	}
+	m.drawLabels(c, f, st, geo, placed)
 	drawAxes(c, f, st, unit, scale)
 	drawScaleBar(c, f, st, unit, scale)
 	var levels []float64
 	for _, l := range m.Contours {
 		levels = append(levels, l.Level)
 	}
-	drawColourBar(c, m.colors(), f.x0+f.pw+st.font*1.2, f.y0, barW, f.ph, lo, hi, over, under, levels, m.Label, st)
+	drawColourBar(c, m.colors(), f.x0+f.pw+st.font*1.2, f.y0, barW, f.ph, lo, hi, disp.Div, over, under, levels, label, st)
 
 	// Title and subtitle, left-aligned with the plot and shrunk to fit the
 	// picture's width.
@@ -207,9 +232,54 @@ func (m *Map) draw(c canvas, W, H float64) {
 		c.text(s, x, y, fitSize(c, s, size, W-x-st.font*0.5), col, 0, 0, 0)
 	}
 	line(m.Title, y, st.title, black)
-	if m.Subtitle != "" {
-		line(m.Subtitle, y+st.font*1.5, st.font, greyText)
+	for i, l := range sub {
+		line(l, y+st.font*1.5*float64(i+1), st.font, greyText)
 	}
+}
+
+// subtitleLines breaks a subtitle into lines that fit into width: each of
+// its "\n"-separated paragraphs into at most two, three lines in all (the
+// last one shrinks to fit when it must).
+func subtitleLines(c canvas, s string, size, width float64) []string {
+	var out []string
+	for _, para := range strings.Split(s, "\n") {
+		out = append(out, wrapText(c, para, size, width, 2)...)
+	}
+	if len(out) > 3 {
+		out = append(out[:2], strings.Join(out[2:], " "))
+	}
+	return out
+}
+
+// wrapText breaks s at spaces into at most n lines that fit into width at
+// the given size (the last line takes the rest); nil for an empty s.
+func wrapText(c canvas, s string, size, width float64, n int) []string {
+	if s == "" {
+		return nil
+	}
+	if w, _ := c.measure(s, size); w <= width || n < 2 {
+		return []string{s}
+	}
+	words := strings.Fields(s)
+	var lines []string
+	cur := ""
+	for i, wd := range words {
+		try := wd
+		if cur != "" {
+			try = cur + " " + wd
+		}
+		if w, _ := c.measure(try, size); w <= width || cur == "" {
+			cur = try
+			continue
+		}
+		lines = append(lines, cur)
+		if len(lines) == n-1 {
+			cur = strings.Join(words[i:], " ")
+			break
+		}
+		cur = wd
+	}
+	return append(lines, cur)
 }
 
 // fitSize returns the font size, at most size and at least 6, at which s
@@ -356,6 +426,7 @@ type named struct {
 // clippedScene is the scene's geometry within the window.
 type clippedScene struct {
 	regions []geom.Polygon
+	named   []named // the regions to name: all but the background
 	bodies  []named
 	edges   []named
 }
@@ -367,11 +438,16 @@ func (m *Map) sceneIn(w grid.Window) clippedScene {
 	if m.Scene == nil {
 		return out
 	}
-	for _, rg := range m.Scene.Regions {
+	for k, rg := range m.Scene.Regions {
+		nr := named{name: rg.Name}
 		for _, pg := range rg.Polygons {
 			if c := clipPolygon(pg, w); c != nil {
 				out.regions = append(out.regions, c)
+				nr.polygons = append(nr.polygons, c)
 			}
+		}
+		if len(nr.polygons) > 0 && rg.Name != "" && !m.background(k) {
+			out.named = append(out.named, nr)
 		}
 	}
 	for _, b := range m.Scene.Bodies {
@@ -395,6 +471,40 @@ func (m *Map) sceneIn(w grid.Window) clippedScene {
 		}
 	}
 	return out
+}
+
+// background reports whether region k is the scene's medium: its only
+// region, or one whose extent holds every other region's. Its name is in
+// the report's table of materials; on the map it would only add clutter.
+func (m *Map) background(k int) bool {
+	sc := m.Scene
+	lo, hi := regionBounds(sc.Regions[k].Polygons)
+	tol := 1e-9 * math.Max(hi.X-lo.X, hi.Y-lo.Y)
+	for i, rg := range sc.Regions {
+		if i == k {
+			continue
+		}
+		a, b := regionBounds(rg.Polygons)
+		if a.X < lo.X-tol || a.Y < lo.Y-tol || b.X > hi.X+tol || b.Y > hi.Y+tol {
+			return false
+		}
+	}
+	return true
+}
+
+// regionBounds returns the bounding box of the outer rings of polygons.
+func regionBounds(ps []geom.Polygon) (lo, hi r2.Vec) {
+	lo = r2.Vec{X: math.Inf(1), Y: math.Inf(1)}
+	hi = r2.Vec{X: math.Inf(-1), Y: math.Inf(-1)}
+	for _, pg := range ps {
+		if len(pg) == 0 {
+			continue
+		}
+		a, b := ringBounds(pg[0])
+		lo.X, lo.Y = math.Min(lo.X, a.X), math.Min(lo.Y, a.Y)
+		hi.X, hi.Y = math.Max(hi.X, b.X), math.Max(hi.Y, b.Y)
+	}
+	return lo, hi
 }
 
 // drawScene masks what is not domain and draws bodies, regions and edges.
@@ -442,13 +552,41 @@ func (m *Map) drawScene(c canvas, f frame, st style, geo clippedScene) {
 	}
 }
 
+// box is a rectangle on the picture, pixels: what a label covers.
+type box struct{ x0, y0, x1, y1 float64 }
+
+// textBox returns the box of text of width w and cap height h anchored at
+// (x, y) as canvas.text anchors it, with a margin d all round.
+func textBox(x, y, w, h, ax, ay, d float64) box {
+	x0 := x - ax*w
+	base := y + ay*h
+	return box{x0 - d, base - h - d, x0 + w + d, base + 0.3*h + d}
+}
+
+func (b box) overlaps(o box) bool {
+	return b.x0 < o.x1 && o.x0 < b.x1 && b.y0 < o.y1 && o.y0 < b.y1
+}
+
+func overlapsAny(b box, placed []box) bool {
+	for _, o := range placed {
+		if b.overlaps(o) {
+			return true
+		}
+	}
+	return false
+}
+
 // drawLabels names the bodies (inside when they are large enough, beside
-// them otherwise), the edges and the ground plane.
-func (m *Map) drawLabels(c canvas, f frame, st style, geo clippedScene) {
+// them otherwise), the edges, the ground plane and the regions other than
+// the background (inside them, where the name fits and covers no body and
+// no other label; otherwise not at all). placed holds the boxes already
+// taken (the marker's).
+func (m *Map) drawLabels(c canvas, f frame, st style, geo clippedScene, placed []box) {
 	sc := m.Scene
 	if sc == nil {
 		return
 	}
+	pad := st.font * 0.2
 	for _, b := range geo.bodies {
 		if b.name == "" {
 			continue
@@ -461,6 +599,7 @@ func (m *Map) drawLabels(c canvas, f frame, st style, geo clippedScene) {
 		at := f.px(labelPoint(pg))
 		if tw+4 <= bw && th*1.6 <= bh && insidePolygon(pg, f.world(at.X, at.Y)) {
 			haloText(c, b.name, at.X, at.Y, st.font, black, 0.5, 0.5)
+			placed = append(placed, textBox(at.X, at.Y, tw, th, 0.5, 0.5, pad))
 			continue
 		}
 		// Beside the body, at its right (left when that leaves the plot),
@@ -471,6 +610,7 @@ func (m *Map) drawLabels(c canvas, f frame, st style, geo clippedScene) {
 			x, ax = p0.X-st.font*0.4, 1
 		}
 		haloText(c, b.name, x, y, st.font, black, ax, 0.5)
+		placed = append(placed, textBox(x, y, tw, th, ax, 0.5, pad))
 	}
 	for _, e := range geo.edges {
 		if e.name == "" {
@@ -487,15 +627,73 @@ func (m *Map) drawLabels(c canvas, f frame, st style, geo clippedScene) {
 		if nrm.Y > 0 {
 			nrm = r2.Scale(-1, nrm) // prefer above
 		}
-		at := r2.Add(mid, r2.Scale(st.font*0.9, nrm))
-		at.X = clamp(at.X, f.x0+st.font, f.x0+f.pw-st.font)
+		// Far enough along the normal that the text's box clears the line.
+		tw, th := c.measure(e.name, st.small)
+		off := 0.5*(tw*math.Abs(nrm.X)+th*1.3*math.Abs(nrm.Y)) + st.font*0.5
+		at := r2.Add(mid, r2.Scale(off, nrm))
+		at.X = clamp(at.X, f.x0+tw/2+st.font*0.3, f.x0+f.pw-tw/2-st.font*0.3)
 		at.Y = clamp(at.Y, f.y0+st.font, f.y0+f.ph-st.font*0.5)
 		haloText(c, e.name, at.X, at.Y, st.small, black, 0.5, 0.5)
+		placed = append(placed, textBox(at.X, at.Y, tw, th, 0.5, 0.5, pad))
 	}
 	if g := sc.Problem.Ground; g != nil && sc.Problem.Open && g.Y > f.win.Min.Y && g.Y < f.win.Max.Y {
 		p := f.px(r2.Vec{X: f.win.Max.X, Y: g.Y})
-		haloText(c, "ground plane (0)", p.X-st.font*0.5, p.Y+st.font*0.9, st.small, ink, 1, 0.5)
+		s := "ground plane (0)"
+		tw, th := c.measure(s, st.small)
+		haloText(c, s, p.X-st.font*0.5, p.Y+st.font*0.9, st.small, ink, 1, 0.5)
+		placed = append(placed, textBox(p.X-st.font*0.5, p.Y+st.font*0.9, tw, th, 1, 0.5, pad))
 	}
+	for _, rg := range geo.named {
+		if b, ok := m.regionLabel(c, f, st, rg, geo.bodies, placed); ok {
+			placed = append(placed, b)
+		}
+	}
+}
+
+// regionLabel writes a region's name inside it: at the middle of one of
+// its longest horizontal chords, where the name's box lies inside the
+// region and the plot and covers no body and no label already placed. It
+// returns the box taken, or false when the name fits nowhere (no label).
+func (m *Map) regionLabel(c canvas, f frame, st style, rg named, bodies []named, placed []box) (box, bool) {
+	size := st.small
+	tw, th := c.measure(rg.name, size)
+	margin := math.Max(2, st.font*0.12) // the halo and a little air
+	fits := func(at r2.Vec, pg geom.Polygon) (box, bool) {
+		b := textBox(at.X, at.Y, tw, th, 0.5, 0.5, margin)
+		if b.x0 < f.x0 || b.x1 > f.x0+f.pw || b.y0 < f.y0 || b.y1 > f.y0+f.ph || overlapsAny(b, placed) {
+			return b, false
+		}
+		// The box's corners, edge midpoints and centre lie in the region
+		// and outside every body.
+		for _, fx := range []float64{0, 0.25, 0.5, 0.75, 1} {
+			for _, fy := range []float64{0, 0.5, 1} {
+				p := f.world(b.x0+fx*(b.x1-b.x0), b.y0+fy*(b.y1-b.y0))
+				if !insidePolygon(pg, p) {
+					return b, false
+				}
+				for _, bd := range bodies {
+					for _, bp := range bd.polygons {
+						if insidePolygon(bp, p) {
+							return b, false
+						}
+					}
+				}
+			}
+		}
+		return b, true
+	}
+	polys := append([]geom.Polygon(nil), rg.polygons...)
+	sort.SliceStable(polys, func(i, j int) bool { return ringArea(polys[i][0]) > ringArea(polys[j][0]) })
+	for _, pg := range polys {
+		for _, at := range labelPoints(pg) {
+			p := f.px(at)
+			if b, ok := fits(p, pg); ok {
+				haloText(c, rg.name, p.X, p.Y, size, ink, 0.5, 0.5)
+				return b, true
+			}
+		}
+	}
+	return box{}, false
 }
 
 // haloText draws text with a white halo so that it reads over any colour.
@@ -557,8 +755,24 @@ func insidePolygon(pg geom.Polygon, p r2.Vec) bool {
 // longest horizontal chord through its bounding box's middle height (the
 // centre of a convex shape, and still inside a ring or an L).
 func labelPoint(pg geom.Polygon) r2.Vec {
+	if pts := labelPoints(pg); len(pts) > 0 {
+		return pts[0]
+	}
 	lo, hi := ringBounds(pg[0])
-	bestLen, best := -1.0, r2.Scale(0.5, r2.Add(lo, hi))
+	return r2.Scale(0.5, r2.Add(lo, hi))
+}
+
+// labelPoints returns the middles of the horizontal chords of the polygon
+// at several heights of its bounding box, from the middle outward, the
+// longest first (a chord must be a fifth longer than another to pass it,
+// so that the middle height wins near ties).
+func labelPoints(pg geom.Polygon) []r2.Vec {
+	lo, hi := ringBounds(pg[0])
+	type chord struct {
+		at  r2.Vec
+		len float64
+	}
+	var chords []chord
 	for _, fy := range []float64{0.5, 0.4, 0.6, 0.3, 0.7, 0.2, 0.8} {
 		y := lo.Y + fy*(hi.Y-lo.Y)
 		var xs []float64
@@ -572,12 +786,26 @@ func labelPoint(pg geom.Polygon) r2.Vec {
 		}
 		sort.Float64s(xs)
 		for k := 0; k+1 < len(xs); k += 2 {
-			if l := xs[k+1] - xs[k]; l > bestLen*1.2 {
-				bestLen, best = l, r2.Vec{X: 0.5 * (xs[k] + xs[k+1]), Y: y}
-			}
+			chords = append(chords, chord{r2.Vec{X: 0.5 * (xs[k] + xs[k+1]), Y: y}, xs[k+1] - xs[k]})
 		}
 	}
-	return best
+	// Insertion by length with the fifth's margin: a later chord passes an
+	// earlier one only when it is more than 1.2 times as long.
+	var out []chord
+	for _, ch := range chords {
+		i := len(out)
+		for i > 0 && ch.len > 1.2*out[i-1].len {
+			i--
+		}
+		out = append(out, chord{})
+		copy(out[i+1:], out[i:])
+		out[i] = ch
+	}
+	pts := make([]r2.Vec, len(out))
+	for i, ch := range out {
+		pts[i] = ch.at
+	}
+	return pts
 }
 
 func longestSegment(lines [][]r2.Vec) (a, b r2.Vec, ok bool) {
@@ -592,10 +820,11 @@ func longestSegment(lines [][]r2.Vec) (a, b r2.Vec, ok bool) {
 	return a, b, ok
 }
 
-// drawFluxLine draws a flux line with an arrowhead at its middle.
-func drawFluxLine(c canvas, f frame, l []r2.Vec, st style) {
+// drawFluxLine draws a flux line with an arrowhead at its middle, and
+// returns the arrowhead's box if it drew one.
+func drawFluxLine(c canvas, f frame, l []r2.Vec, st style) (box, bool) {
 	if len(l) < 2 {
-		return
+		return box{}, false
 	}
 	pts := f.pxs(l)
 	c.stroke(fluxLine, 1.3*st.line, nil, false, pts)
@@ -604,7 +833,7 @@ func drawFluxLine(c canvas, f frame, l []r2.Vec, st style) {
 		total += r2.Norm(r2.Sub(pts[i], pts[i-1]))
 	}
 	if total < 6*st.font {
-		return
+		return box{}, false
 	}
 	acc := 0.0
 	for i := 1; i < len(pts); i++ {
@@ -618,14 +847,16 @@ func drawFluxLine(c canvas, f frame, l []r2.Vec, st style) {
 			tip := r2.Add(p, r2.Scale(s, dir))
 			back := r2.Sub(p, r2.Scale(s, dir))
 			c.fill(fluxLine, []r2.Vec{tip, r2.Add(back, r2.Scale(0.6*s, n)), r2.Sub(back, r2.Scale(0.6*s, n))})
-			return
+			return box{p.X - s, p.Y - s, p.X + s, p.Y + s}, true
 		}
 		acc += d
 	}
+	return box{}, false
 }
 
-// drawMarker circles a point and writes its text beside it.
-func drawMarker(c canvas, f frame, mk Marker, st style) {
+// drawMarker circles a point and writes its text beside it; it returns the
+// boxes that the circle and the text take.
+func drawMarker(c canvas, f frame, mk Marker, st style) []box {
 	p := f.px(mk.At)
 	r := st.font * 0.6
 	circ := make([]r2.Vec, 32)
@@ -637,10 +868,11 @@ func drawMarker(c canvas, f frame, mk Marker, st style) {
 	c.stroke(black, 2*st.line, nil, true, circ)
 	c.stroke(black, 1.5*st.line, nil, false, []r2.Vec{{X: p.X - 1.8*r, Y: p.Y}, {X: p.X - 1.1*r, Y: p.Y}})
 	c.stroke(black, 1.5*st.line, nil, false, []r2.Vec{{X: p.X + 1.1*r, Y: p.Y}, {X: p.X + 1.8*r, Y: p.Y}})
+	out := []box{{p.X - 1.8*r, p.Y - r, p.X + 1.8*r, p.Y + r}}
 	if mk.Text == "" {
-		return
+		return out
 	}
-	tw, _ := c.measure(mk.Text, st.font)
+	tw, th := c.measure(mk.Text, st.font)
 	x, ax := p.X+2.2*r, 0.0
 	if x+tw > f.x0+f.pw {
 		x, ax = p.X-2.2*r, 1
@@ -650,6 +882,7 @@ func drawMarker(c canvas, f frame, mk Marker, st style) {
 		y = p.Y + 2.2*r
 	}
 	haloText(c, mk.Text, x, y, st.font, black, ax, 0.5)
+	return append(out, textBox(x, y, tw, th, ax, 0.5, st.font*0.2))
 }
 
 // drawAxes draws the frame with ticks labelled in the scene's unit.
@@ -674,27 +907,25 @@ func drawAxes(c canvas, f frame, st style, unit string, scale float64) {
 	c.text("y ("+unit+")", f.x0-st.font*4.3, f.y0+f.ph/2, st.font, ink, 0.5, 0.5, math.Pi/2)
 }
 
-// drawScaleBar draws a bar of a round length in the scene's unit at the
-// plot's lower left.
+// drawScaleBar draws a bar of a round length in the scene's unit below the
+// plot's lower left corner, on the line of the x axis' label, so that it
+// hides nothing of the map.
 func drawScaleBar(c canvas, f frame, st style, unit string, scale float64) {
-	length := niceBelow(0.25 * f.win.Size().X / scale)
+	length := niceBelow(0.2 * f.win.Size().X / scale)
 	if !(length > 0) {
 		return
 	}
 	pl := length * scale * f.s
 	label := formatValue(length) + " " + unit
-	tw, _ := c.measure(label, st.small)
-	pad := st.font * 0.5
-	x := f.x0 + pad*2
-	y := f.y0 + f.ph - pad*2
+	tl := st.font * 0.4
+	base := f.y0 + f.ph + tl + st.small*1.2 + st.font*1.6 // the x label's baseline
 	bh := st.font * 0.45
-	box := []r2.Vec{{X: x - pad, Y: y + pad}, {X: x + math.Max(pl, tw) + pad, Y: y + pad},
-		{X: x + math.Max(pl, tw) + pad, Y: y - bh - st.small*1.6 - pad}, {X: x - pad, Y: y - bh - st.small*1.6 - pad}}
-	c.fill(boxFill, box)
+	x := f.x0
+	y := base // the bar's bottom
 	half := []r2.Vec{{X: x, Y: y}, {X: x + pl/2, Y: y}, {X: x + pl/2, Y: y - bh}, {X: x, Y: y - bh}}
-	c.fill(black, half)
-	c.stroke(black, st.line, nil, true, []r2.Vec{{X: x, Y: y}, {X: x + pl, Y: y}, {X: x + pl, Y: y - bh}, {X: x, Y: y - bh}})
-	c.text(label, x, y-bh-st.small*0.5, st.small, black, 0, 0, 0)
+	c.fill(ink, half)
+	c.stroke(ink, st.line, nil, true, []r2.Vec{{X: x, Y: y}, {X: x + pl, Y: y}, {X: x + pl, Y: y - bh}, {X: x, Y: y - bh}})
+	c.text(label, x+pl+st.font*0.5, y, st.small, ink, 0, 0, 0)
 }
 
 // maxLabelWidth estimates the width of the colour bar's tick labels.
@@ -709,10 +940,11 @@ func maxLabelWidth(c canvas, lo, hi, size float64) float64 {
 }
 
 // drawColourBar draws the colour map from lo (bottom) to hi (top) with
-// ticks, the contour levels as thin marks and the label, rotated, at its
-// right; an arrow on top when values rise above hi, at the bottom when
-// they fall below lo.
-func drawColourBar(c canvas, cm Colormap, x, y, w, h, lo, hi float64, over, under bool, levels []float64, label string, st style) {
+// ticks labelled in values over div (the display unit's SI value), the
+// contour levels as thin marks and the label, rotated, at its right; an
+// arrow on top when values rise above hi, at the bottom when they fall
+// below lo.
+func drawColourBar(c canvas, cm Colormap, x, y, w, h, lo, hi, div float64, over, under bool, levels []float64, label string, st style) {
 	if over {
 		// Leave room for the arrow.
 		y += w
@@ -747,10 +979,10 @@ func drawColourBar(c canvas, cm Colormap, x, y, w, h, lo, hi float64, over, unde
 			c.stroke(contour, st.line, nil, false, []r2.Vec{{X: x, Y: at(lv)}, {X: x + w, Y: at(lv)}})
 		}
 	}
-	vals, step := ticks(lo, hi, max(2, int(h/(st.font*3.5))))
+	vals, step := ticks(lo/div, hi/div, max(2, int(h/(st.font*3.5))))
 	lw := 0.0
 	for _, v := range vals {
-		py := at(v)
+		py := at(v * div)
 		c.stroke(ink, st.line, nil, false, []r2.Vec{{X: x + w, Y: py}, {X: x + w + st.font*0.35, Y: py}})
 		s := formatTick(v, step)
 		tw, _ := c.measure(s, st.small)

@@ -4,6 +4,8 @@ import (
 	"math"
 	"strconv"
 	"strings"
+
+	"gonum.org/v1/plot"
 )
 
 // niceStep returns a step of 1, 2 or 5 times a power of ten close to
@@ -100,4 +102,57 @@ func compactExp(s string) string {
 		e = "-" + e
 	}
 	return m + "e" + e
+}
+
+// niceTicker places ticks of gonum's plots at multiples of a 1, 2 or 5
+// step (about n of them: the step nearest span/n on a log scale) labelled
+// with as many digits as the step needs, and unlabelled minor ticks
+// between them.
+type niceTicker struct{ n int }
+
+// Ticks implements plot.Ticker.
+func (t niceTicker) Ticks(lo, hi float64) []plot.Tick {
+	if !(hi > lo) || math.IsInf(hi-lo, 0) {
+		return nil
+	}
+	raw := (hi - lo) / float64(max(t.n, 1))
+	p := math.Pow(10, math.Floor(math.Log10(raw)))
+	step := p
+	for _, m := range []float64{2, 5, 10} {
+		if math.Abs(math.Log(m*p/raw)) < math.Abs(math.Log(step/raw)) {
+			step = m * p
+		}
+	}
+	var vals []float64
+	first := math.Ceil(lo/step - 1e-9)
+	for i := 0.0; ; i++ {
+		v := (first + i) * step
+		if v > hi+1e-9*step {
+			break
+		}
+		if math.Abs(v) < 1e-9*step {
+			v = 0
+		}
+		vals = append(vals, v)
+	}
+	var out []plot.Tick
+	for _, v := range vals {
+		out = append(out, plot.Tick{Value: v, Label: formatTick(v, step)})
+	}
+	// Minor ticks: fifths of a step of 5, halves of a step of 1 or 2.
+	minor := step / 2
+	if m := step / math.Pow(10, math.Floor(math.Log10(step)+1e-9)); m > 4 {
+		minor = step / 5
+	}
+	first = math.Ceil(lo/minor - 1e-9)
+	for i := 0.0; ; i++ {
+		v := (first + i) * minor
+		if v > hi+1e-9*minor {
+			break
+		}
+		if r := math.Remainder(v, step); math.Abs(r) > 1e-6*step {
+			out = append(out, plot.Tick{Value: v})
+		}
+	}
+	return out
 }

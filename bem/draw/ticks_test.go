@@ -1,6 +1,9 @@
 package draw
 
-import "testing"
+import (
+	"fmt"
+	"testing"
+)
 
 func TestFormat(t *testing.T) {
 	for _, c := range []struct {
@@ -22,5 +25,35 @@ func TestFormat(t *testing.T) {
 	}
 	if niceBelow(0.37) != 0.2 || niceBelow(7) != 5 || niceBelow(1) != 1 {
 		t.Error("niceBelow")
+	}
+}
+
+// The charts' ticker: multiples of a 1, 2 or 5 step (common practice),
+// labelled without stray digits, and unlabelled minor ticks between them.
+func TestNiceTicker(t *testing.T) {
+	var major []string
+	minor := 0
+	for _, tk := range (niceTicker{n: 8}).Ticks(0.006, 0.7) {
+		if tk.Label == "" {
+			minor++
+			continue
+		}
+		major = append(major, tk.Label)
+	}
+	want := []string{"0.1", "0.2", "0.3", "0.4", "0.5", "0.6", "0.7"}
+	if fmt.Sprint(major) != fmt.Sprint(want) {
+		t.Errorf("major ticks over [0.006, 0.7]: %v, want %v", major, want)
+	}
+	if minor != 7 { // halves of the step of 0.1: 0.05, 0.15, ..., 0.65
+		t.Errorf("%d minor ticks, want 7", minor)
+	}
+	var labels []string
+	for _, tk := range (niceTicker{n: 8}).Ticks(-8.4, 8.4) {
+		if tk.Label != "" {
+			labels = append(labels, tk.Label)
+		}
+	}
+	if fmt.Sprint(labels) != "[-8 -6 -4 -2 0 2 4 6 8]" {
+		t.Errorf("ticks over [-8.4, 8.4]: %v", labels)
 	}
 }
