@@ -170,18 +170,19 @@ func (j *job) contourLevels(lo, hi float64) []float64 {
 	return grid.Levels(lo, hi, j.levels)
 }
 
-// quantityNames names |grad u| and the potential for the pictures.
-func quantityNames(p geom.Physics) (potential, field, fieldUnit string) {
+// quantityNames names the potential and |grad u| for the pictures, with
+// their SI units ("1": none).
+func quantityNames(p geom.Physics) (potential, potUnit, field, fieldUnit string) {
 	u := unitsOf(p)
 	switch p {
 	case geom.Electrostatic:
-		return "potential (V)", "field strength |E|", "V/m"
+		return "potential", u.Potential, "field strength |E|", "V/m"
 	case geom.Seepage:
-		return "total head (m)", "hydraulic gradient |i|", "1"
+		return "total head", u.Potential, "hydraulic gradient |i|", "1"
 	case geom.Flow:
-		return "potential (" + u.Potential + ")", "speed |grad u|", "m/s"
+		return "potential", u.Potential, "speed |grad u|", "m/s"
 	}
-	return "potential u", "|grad u|", "1/m"
+	return "potential u", "1", "|grad u|", "1/m"
 }
 
 // pictureFiles draws potential.png, field.png and boundary.png (and their
@@ -198,7 +199,7 @@ func pictureFiles(j *job) ([]outputFile, error) {
 	g := j.sampled()
 	sc := j.scene
 	units := unitsOf(sc.Problem.Physics)
-	potName, fieldName, fieldUnit := quantityNames(sc.Problem.Physics)
+	potName, potUnit, fieldName, fieldUnit := quantityNames(sc.Problem.Physics)
 	width, height := pj.width, pj.height
 	if height == 0 {
 		height = autoHeight(g.Window, width)
@@ -216,40 +217,66 @@ func pictureFiles(j *job) ([]outputFile, error) {
 	for _, l := range net.Lines {
 		lines = append(lines, l.Points)
 	}
-	pot := &draw.Map{Grid: g, Values: g.U, Label: potName, Title: headline(j),
-		Subtitle: flowNetText(net, units.Inflow, pj.at != nil), Contours: contours, Lines: lines, Scene: sc}
+	// Title: the scene and its main result; below, the peak field and the
+	// flow net.
+	title := sceneName(j.scenePath)
+	main, peakText := mainResult(j)
+	if main != "" {
+		title += ": " + main
+	}
+	var potSub []string
+	if peakText != "" {
+		potSub = append(potSub, capitalise(peakText))
+	}
+	if fn := flowNetText(net, units.Inflow, pj.at != nil); fn != "" {
+		potSub = append(potSub, fn)
+	}
+	pot := &draw.Map{Grid: g, Values: g.U, Label: potName, Unit: potUnit, Title: title,
+		Subtitle: strings.Join(potSub, "\n"), Contours: contours, Lines: lines, Scene: sc}
 	if hi > lo {
 		pot.Lo, pot.Hi = lo, hi
 	}
 
 	mag := g.Magnitude()
 	peak, at := grid.Peak(mag)
-	sub := "Colours stop at the 99th percentile of the samples (arrow on the bar)."
+	sub := "Colours stop at the 99th percentile of the samples (arrow on the colour bar)."
 	if len(j.mesh.Singular) > 0 {
 		sub += " At sharp corners and changes of condition the field is infinite in theory: see the cautions."
 	}
-	unitText := " " + fieldUnit
-	if fieldUnit == "1" {
-		unitText = ""
-	}
-	fld := &draw.Map{Grid: g, Values: mag, FromZero: true, Clip: 0.99, Label: fieldName + " (" + fieldUnit + ")",
-		Title:    fmt.Sprintf("%s: largest on the %d x %d sampling grid %s%s", capitalise(fieldName), g.NX, g.NY, fmtNum(peak), unitText),
+	fld := &draw.Map{Grid: g, Values: mag, FromZero: true, Clip: 0.99, Label: fieldName, Unit: fieldUnit,
+		Title:    fmt.Sprintf("%s: largest on the %d x %d sampling grid %s", capitalise(fieldName), g.NX, g.NY, draw.FormatSI(peak, fieldUnit)),
 		Subtitle: sub, Scene: sc}
 	if sp := surfacePeak(j); sp != nil {
 		// The physics found the peak on the conductors' surfaces, which the
 		// grid, stopping short of the boundary, cannot see: mark that one.
-		fld.Title = fmt.Sprintf("%s: peak %s%s on %q (grid maximum %s%s)", capitalise(fieldName),
-			fmtNum(float64(sp.Value)), unitText, sp.Boundary, fmtNum(peak), unitText)
-		fld.Marker = &draw.Marker{At: r2.Vec{X: float64(sp.X), Y: float64(sp.Y)}, Text: "peak " + fmtNum(float64(sp.Value)) + unitText}
+		// Both numbers in the peak's unit, so that they compare at a glance.
+		d := draw.DisplayFor(fieldUnit, float64(sp.Value))
+		fld.Title = fmt.Sprintf("%s: peak %s on %q (largest on the sampling grid %s)", capitalise(fieldName),
+			d.Format(float64(sp.Value)), sp.Boundary, d.Format(peak))
+		fld.Marker = &draw.Marker{At: r2.Vec{X: float64(sp.X), Y: float64(sp.Y)}, Text: "peak " + d.Format(float64(sp.Value))}
 	} else if at >= 0 {
+		fld.Marker = &draw.Marker{At: g.Point(at%g.NX, at/g.NX), Text: "largest " + draw.FormatSI(peak, fieldUnit)}
+	} else {
 		j.warnings = append(j.warnings, "field.png has no peak: no grid sample lies in the domain; give a larger --image-size or check the scene")
 	}
 
 	potSeries, inSeries := draw.BoundarySeries(j.sol)
+	xLabel, xScale := arcLengthAxis(sc, potSeries)
+	for _, set := range [][]draw.Series{potSeries, inSeries} {
+		for k := range set {
+			for i := range set[k].X {
+				set[k].X[i] /= xScale
+			}
+		}
+	}
+	inTitle, inLabel := "Inflow density (flux entering the domain positive)", "inflow density"
+	if sc.Problem.Physics == geom.Electrostatic {
+		// On a conductor the inflow density is the surface charge density.
+		inTitle, inLabel = "Surface charge density (inflow density: flux entering the domain positive)", "charge density"
+	}
 	charts := draw.Charts{
-		{Title: "Potential along each boundary", XLabel: "arc length along the boundary (m)", YLabel: potName, Series: potSeries},
-		{Title: "Inflow density (flux entering the domain positive)", XLabel: "arc length along the boundary (m)",
-			YLabel: "inflow density (" + units.InflowDensity + ")", Series: inSeries, Clip: 0.98},
+		{Title: "Potential along each boundary", XLabel: xLabel, YLabel: potName, YUnit: potUnit, Series: potSeries},
+		{Title: inTitle, XLabel: xLabel, YLabel: inLabel, YUnit: units.InflowDensity, Series: inSeries, Clip: 0.98},
 	}
 
 	if h, ok := chartHooks[sc.Problem.Physics]; ok {
@@ -285,7 +312,7 @@ func pictureFiles(j *job) ([]outputFile, error) {
 	}{
 		{potentialPicture, "Potential with equipotentials (dark lines) and flux lines (white, arrows in the direction of flux).",
 			func(w io.Writer) error { return pot.PNG(w, width, height) }, func(w io.Writer) error { return pot.SVG(w, width, height) }},
-		{fieldPicture, "Magnitude of the potential gradient; the circle marks the largest value on the sampling grid.",
+		{fieldPicture, fieldCaption(j),
 			func(w io.Writer) error { return fld.PNG(w, width, height) }, func(w io.Writer) error { return fld.SVG(w, width, height) }},
 		{boundaryPicture, "Potential and inflow density at each panel's midpoint against the arc length along each body and edge.",
 			func(w io.Writer) error { return charts.PNG(w, width, chartH) }, func(w io.Writer) error { return charts.SVG(w, width, chartH) }},
@@ -305,6 +332,34 @@ func bytesFile(name string, data []byte) outputFile {
 	}}
 }
 
+// arcLengthAxis returns the label of the charts' arc length axis and the
+// metres per unit of its values: the scene's unit when the scene is drawn
+// in one other than metres and the longest boundary is at most 10 000 of
+// it (700 mm rather than 0.7 m), metres otherwise.
+func arcLengthAxis(sc *geom.Scene, series []draw.Series) (label string, scale float64) {
+	unit, s := sceneUnit(sc), sc.Problem.Scale
+	longest := 0.0
+	for _, sr := range series {
+		for _, x := range sr.X {
+			if !math.IsNaN(x) {
+				longest = math.Max(longest, x)
+			}
+		}
+	}
+	if unit == "m" || !(s > 0) || longest/s > 1e4 {
+		unit, s = "m", 1
+	}
+	return "arc length along the boundary (" + unit + ")", s
+}
+
+// fieldCaption describes field.png for the report.
+func fieldCaption(j *job) string {
+	if surfacePeak(j) != nil {
+		return "Magnitude of the potential gradient; the circle marks the peak on the conductors' surfaces (results.json peak_field)."
+	}
+	return "Magnitude of the potential gradient; the circle marks the largest value on the sampling grid."
+}
+
 // autoHeight returns a picture height that fits the window's proportions
 // at the given width, within [500, 1600] pixels.
 func autoHeight(w grid.Window, width int) int {
@@ -317,26 +372,101 @@ func autoHeight(w grid.Window, width int) int {
 	return int(math.Min(maxPictureHeight, math.Max(minPictureHeight, math.Round(h))))
 }
 
-// headline returns the first line of the potential picture: the scene and
-// its main result.
+// headline returns the scene and its main result in one line, for the
+// report: "coaxial/scene.geojson: C = 96.99 pF/m between "core" and
+// "shield"; peak field 1.234 kV/mm on "core"".
 func headline(j *job) string {
+	name := sceneName(j.scenePath)
+	main, peak := mainResult(j)
+	switch {
+	case main != "" && peak != "":
+		return name + ": " + main + "; " + peak
+	case main != "" || peak != "":
+		return name + ": " + main + peak
+	}
+	return name
+}
+
+// mainResult states the scene's main result for people, SI with the prefix
+// that suits it, and in electrostatics the peak field on the conductors:
+//
+//   - electrostatics with two fixed conductors: the capacitance between
+//     them, -C12 of the Maxwell matrix; with three, the three partial
+//     capacitances between them; with more, the first conductor's
+//     self-capacitance C11.
+//   - seepage: the discharge.
+//   - otherwise: what flows in through the boundary at the highest fixed
+//     potential (or the floating body with the largest net inflow).
+func mainResult(j *job) (main, peak string) {
 	sc := j.scene
 	units := unitsOf(sc.Problem.Physics)
-	name := sceneName(j.scenePath)
-	if pj := j.pics; pj != nil && pj.res != nil {
-		r := pj.res
-		if sc.Problem.Physics == geom.Seepage && r.Seepage != nil {
-			return fmt.Sprintf("%s: discharge %s m²/s per metre", name, fmtNum(float64(r.Seepage.Discharge)))
-		}
-		// Two fixed conductors: the capacitance between them, -C12 of the
-		// Maxwell matrix.
-		if e := r.Electrostatic; e != nil && e.Capacitance != nil && len(e.Capacitance.Conductors) == 2 && len(e.Capacitance.Matrix) == 2 && len(e.Capacitance.Matrix[0]) == 2 {
-			c := e.Capacitance
-			return fmt.Sprintf("%s: capacitance %s F/m between %q and %q", name, fmtNum(-float64(c.Matrix[0][1])), c.Conductors[0], c.Conductors[1])
+	var r *results
+	if pj := j.pics; pj != nil {
+		r = pj.res
+	}
+	if r != nil && sc.Problem.Physics == geom.Seepage && r.Seepage != nil {
+		return fmt.Sprintf("discharge %s per metre", draw.FormatSI(float64(r.Seepage.Discharge), "m^2/s")), ""
+	}
+	var e *electrostaticSection
+	if r != nil {
+		e = r.Electrostatic
+	}
+	if e != nil && e.PeakField != nil && isFinite(float64(e.PeakField.Value)) {
+		peak = fmt.Sprintf("peak field %s on %q", draw.FormatSI(float64(e.PeakField.Value), "V/m"), e.PeakField.Boundary)
+		if peakMeshDependent(e, sceneSize(j)) {
+			peak += " (mesh-dependent: see the warnings)"
 		}
 	}
-	// The body or edge at the highest fixed potential and what flows in
-	// through it.
+	if c := capacitanceText(e); c != "" {
+		return c, peak
+	}
+	return boundaryResult(j, units), peak
+}
+
+// capacitanceText states the capacitances of an electrostatic section with
+// two or more fixed conductors, or "".
+func capacitanceText(e *electrostaticSection) string {
+	if e == nil || e.Capacitance == nil {
+		return ""
+	}
+	c := e.Capacitance
+	n := len(c.Conductors)
+	if n < 2 || len(c.Matrix) != n {
+		return ""
+	}
+	for _, row := range c.Matrix {
+		if len(row) != n {
+			return ""
+		}
+	}
+	switch n {
+	case 2:
+		return fmt.Sprintf("C = %s between %q and %q", draw.FormatSI(-float64(c.Matrix[0][1]), "F/m"), c.Conductors[0], c.Conductors[1])
+	case 3:
+		// The partial capacitances between the pairs, -C_ij, in one unit.
+		var vals []float64
+		var pairs []string
+		for i := range 3 {
+			for k := i + 1; k < 3; k++ {
+				vals = append(vals, -float64(c.Matrix[i][k]))
+				pairs = append(pairs, c.Conductors[i]+"–"+c.Conductors[k])
+			}
+		}
+		d := draw.DisplayFor("F/m", maxAbs(vals))
+		parts := make([]string, len(vals))
+		for i, v := range vals {
+			parts[i] = pairs[i] + " " + d.Number(denoise(v, vals))
+		}
+		return "capacitances " + strings.Join(parts, ", ") + " " + d.Unit
+	}
+	return fmt.Sprintf("self-capacitance C11 = %s of %q (%d conductors: matrix in the report)", draw.FormatSI(float64(c.Matrix[0][0]), "F/m"), c.Conductors[0], n)
+}
+
+// boundaryResult states what flows in through the body or edge at the
+// highest fixed potential, or, with no fixed potential, the floating body
+// with the largest net inflow.
+func boundaryResult(j *job, units quantityUnits) string {
+	sc := j.scene
 	best, bestV := -1, math.Inf(-1)
 	for i, o := range j.mesh.Layout.Owners {
 		if o.Cond.Kind == geom.Potential && o.Cond.Value > bestV {
@@ -345,7 +475,6 @@ func headline(j *job) string {
 	}
 	owners := j.sol.Owners()
 	if best < 0 {
-		// No fixed potential: the floating body with the largest net inflow.
 		f := -1
 		for i, o := range j.mesh.Layout.Owners {
 			if o.Cond.Kind == geom.Floating && (f < 0 || math.Abs(o.Cond.NetInflow) > math.Abs(j.mesh.Layout.Owners[f].Cond.NetInflow)) {
@@ -353,23 +482,96 @@ func headline(j *job) string {
 			}
 		}
 		if f < 0 || f >= len(j.sol.Floating) {
-			return name
+			return ""
 		}
 		what := "net inflow"
 		if sc.Problem.Physics == geom.Electrostatic {
 			what = "charge"
 		}
-		return fmt.Sprintf("%s: %s %s %s on %q, floating at %s %s", name, what, fmtNum(owners[f].Inflow), units.Inflow,
-			owners[f].Name, fmtNum(j.sol.Floating[f]), units.Potential)
+		return fmt.Sprintf("%s %s on %q, floating at %s", what, draw.FormatSI(owners[f].Inflow, units.Inflow),
+			owners[f].Name, draw.FormatSI(j.sol.Floating[f], units.Potential))
 	}
 	res := owners[best]
 	switch sc.Problem.Physics {
 	case geom.Electrostatic:
-		return fmt.Sprintf("%s: charge %s %s on %q (%s V)", name, fmtNum(res.Inflow), units.Inflow, res.Name, fmtNum(bestV))
+		return fmt.Sprintf("charge %s on %q (%s)", draw.FormatSI(res.Inflow, units.Inflow), res.Name, draw.FormatSI(bestV, units.Potential))
 	case geom.Seepage:
-		return fmt.Sprintf("%s: discharge %s %s per metre in through %q (head %s m)", name, fmtNum(res.Inflow), units.Inflow, res.Name, fmtNum(bestV))
+		return fmt.Sprintf("discharge %s per metre in through %q (head %s)", draw.FormatSI(res.Inflow, units.Inflow), res.Name, draw.FormatSI(bestV, units.Potential))
 	}
-	return fmt.Sprintf("%s: inflow %s through %q (u = %s)", name, fmtNum(res.Inflow), res.Name, fmtNum(bestV))
+	return fmt.Sprintf("inflow %s through %q (u = %s)", fmtNum(res.Inflow), res.Name, fmtNum(bestV))
+}
+
+// peakMeshDependent reports whether the conductors' peak field depends on
+// the mesh: it sits on a singular corner, or the refinement study moved it
+// by more than 1 % (the electrostatic warnings' threshold). size is the
+// scene's size in metres.
+func peakMeshDependent(e *electrostaticSection, size float64) bool {
+	if e.PeakField == nil || e.electroExtras == nil {
+		return false
+	}
+	if rf := e.PeakRefinement; rf != nil && math.Abs(float64(rf.Ratio)-1) > 0.01 {
+		return true
+	}
+	return peakCorner(e, size) != nil
+}
+
+// sceneSize returns the diagonal of the area the pictures cover, metres.
+func sceneSize(j *job) float64 {
+	s := grid.Auto(j.mesh).Size()
+	return math.Hypot(s.X, s.Y)
+}
+
+// peakCorner returns the singular corner of the electrostatic section at
+// which the peak field sits, or nil. size is the scene's size in metres.
+func peakCorner(e *electrostaticSection, size float64) *singularCorner {
+	if e.PeakField == nil || e.electroExtras == nil {
+		return nil
+	}
+	px, py := float64(e.PeakField.X), float64(e.PeakField.Y)
+	best, at := math.Inf(1), -1
+	for i, c := range e.SingularCorners {
+		if d := math.Hypot(float64(c.X)-px, float64(c.Y)-py); d < best {
+			best, at = d, i
+		}
+	}
+	// The peak is reported on the panel next to the corner, the corner at
+	// the vertex: the same point to the first panel's size (observed 6e-6
+	// of the scene's size in busbars), while distinct corners lie a
+	// geometric feature apart (8 mm of 250 mm there): 1e-4 of the size
+	// tells them apart.
+	if at < 0 || best > 1e-4*size {
+		return nil
+	}
+	return &e.SingularCorners[at]
+}
+
+func isFinite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+
+// maxAbs returns the largest finite magnitude of vs (0 for none).
+func maxAbs(vs []float64) float64 {
+	m := 0.0
+	for _, v := range vs {
+		if isFinite(v) {
+			m = math.Max(m, math.Abs(v))
+		}
+	}
+	return m
+}
+
+// noise is the magnitude, relative to the largest entry of its set, below
+// which a computed value is taken as rounding noise and shown as 0: sums
+// that cancel (the charge on an enclosing conductor's far side, a to-ground
+// capacitance inside a closed box) come out near 1e-16 of the terms, and a
+// genuine value a billion times smaller than its neighbours has no meaning
+// at the default accuracy of 1e-3 (common practice).
+const noise = 1e-9
+
+// denoise returns v, or 0 when it is below noise times the largest of set.
+func denoise(v float64, set []float64) float64 {
+	if math.Abs(v) < noise*maxAbs(set) {
+		return 0
+	}
+	return v
 }
 
 // sceneName shortens a scene path for a title: its file name, with the
@@ -392,11 +594,7 @@ func flowNetText(net *grid.FlowNet, inflowUnit string, explicit bool) string {
 	}
 	s := fmt.Sprintf("Flow net: %.3g flow channels, %d potential drops, shape factor %.4g = q/(k H)", net.Channels, net.Drops, net.ShapeFactor)
 	if !net.Square {
-		unit := " " + inflowUnit
-		if inflowUnit == "1" {
-			unit = ""
-		}
-		s += fmt.Sprintf("; one flux line every %s%s of flux", fmtNum(net.Step), unit)
+		s += fmt.Sprintf("; one flux line every %s of flux", draw.FormatSI(net.Step, inflowUnit))
 	}
 	if explicit {
 		s += "; the drops are those of --levels, not the --at equipotentials drawn"
@@ -404,12 +602,22 @@ func flowNetText(net *grid.FlowNet, inflowUnit string, explicit bool) string {
 	return s
 }
 
-// fmtNum formats a number with 4 significant digits.
+// fmtNum formats a number with 4 significant digits, with a short exponent
+// outside [1e-4, 1e4): "5.043e6", "2.361e-8".
 func fmtNum(v float64) string {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		return "n/a"
 	}
-	return strconv.FormatFloat(v, 'g', 4, 64)
+	s := strconv.FormatFloat(v, 'g', 4, 64)
+	m, e, ok := strings.Cut(s, "e")
+	if !ok {
+		return s
+	}
+	sign := ""
+	if strings.HasPrefix(e, "-") {
+		sign = "-"
+	}
+	return m + "e" + sign + strings.TrimLeft(e, "+-0")
 }
 
 func capitalise(s string) string {

@@ -10,6 +10,8 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -267,13 +269,27 @@ func TestReport(t *testing.T) {
 	if err := json.Unmarshal(raw, &r); err != nil {
 		t.Fatal(err)
 	}
+	// Every boundary with its inflow in the unit of the column's header,
+	// to the 4 digits shown (report_test.go), or 0 below 1e-9 of the
+	// largest.
+	rows := firstTable(section(readReport(t, filepath.Join(dir, reportName)), "Results per body and edge"))
+	if len(rows) != len(r.Boundaries)+1 {
+		t.Fatalf("boundary table %v, want %d boundaries", rows, len(r.Boundaries))
+	}
+	largest := 0.0
 	for _, b := range r.Boundaries {
-		if !strings.Contains(html, b.Name) || !strings.Contains(html, fmtNum(b.Inflow)) {
-			t.Errorf("report lacks boundary %q or its inflow %s", b.Name, fmtNum(b.Inflow))
+		largest = math.Max(largest, math.Abs(b.Inflow))
+	}
+	unit := headerUnit(t, rows[0][4])
+	for i, b := range r.Boundaries {
+		row := rows[i+1]
+		got := cellValue(t, row[4], unit)
+		if row[0] != b.Name || (math.Abs(b.Inflow) >= 1e-9*largest && !closeShown(got, b.Inflow)) || (math.Abs(b.Inflow) < 1e-9*largest && got != 0) {
+			t.Errorf("boundary row %v, want %q with inflow %g", row, b.Name, b.Inflow)
 		}
 	}
 	for _, c := range r.Cautions {
-		if !strings.Contains(html, c.Topic) {
+		if !strings.Contains(html, "<code>"+c.Topic+"</code>") {
 			t.Errorf("report lacks caution %q", c.Topic)
 		}
 	}
@@ -282,7 +298,7 @@ func TestReport(t *testing.T) {
 			t.Errorf("report lacks warning %q", w)
 		}
 	}
-	for _, want := range []string{"shape factor", "m^2/s", "not a substitute"} {
+	for _, want := range []string{"shape factor", "m²/s", "not a substitute"} {
 		if !strings.Contains(html, want) {
 			t.Errorf("report lacks %q", want)
 		}
@@ -341,8 +357,8 @@ func TestChartHook(t *testing.T) {
 }
 
 // With two fixed conductors the headline is the capacitance between them,
-// -C12 of results.json's Maxwell matrix; with --no-images the report says
-// that it has no pictures. For the coaxial example -C12 must also match
+// -C12 of results.json's Maxwell matrix, in pF/m; with --no-images the
+// report says that it has no pictures. For the coaxial example -C12 must also match
 // 2 pi eps0 eps_r/ln(b/a) (any electrostatics text) within 1e-3, the
 // default mesh's promised accuracy for integrated results (bem's pipeline
 // tests).
@@ -377,8 +393,14 @@ func TestReportCapacitance(t *testing.T) {
 		t.Fatal(err)
 	}
 	html := string(data)
-	if !strings.Contains(html, "capacitance "+fmtNum(c)+" F/m between") {
-		t.Errorf("report headline lacks the capacitance %s F/m", fmtNum(c))
+	// The headline leads with C = -C12 in pF/m, 4 digits: the formula's
+	// value to the rounding of the digits shown and the mesh's 1e-3.
+	hl := regexp.MustCompile(`C = ([0-9.]+) pF/m between &#34;pin&#34; and &#34;bore&#34;`).FindStringSubmatch(html)
+	if hl == nil {
+		t.Fatalf("report headline lacks C = ... pF/m between \"pin\" and \"bore\"")
+	}
+	if shown, _ := strconv.ParseFloat(hl[1], 64); math.Abs(shown*1e-12-want) > (1e-3+tolShown)*want {
+		t.Errorf("headline C = %s pF/m, want %.4g pF/m", hl[1], want*1e12)
 	}
 	if !strings.Contains(html, "No pictures") || strings.Contains(html, "data:image/png") {
 		t.Error("a report with --no-images must say it has no pictures and embed none")
