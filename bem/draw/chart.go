@@ -100,12 +100,13 @@ func (c *Chart) plot(fontSize float64) (*plot.Plot, *plot.Legend, error) {
 		a.Label.TextStyle.Font = sans(fontSize)
 		a.Tick.Label.Font = sans(fontSize * 0.85)
 	}
-	p.X.Tick.Marker = niceTicker{n: 10}
+	p.X.Tick.Marker = niceTicker{n: 8}
 	p.Y.Tick.Marker = niceTicker{n: 8}
 	leg := plot.NewLegend()
 	leg.TextStyle.Font = sans(fontSize * 0.9)
 	leg.Top, leg.Left = true, true
 	leg.ThumbnailWidth = vg.Length(fontSize * 2)
+	leg.Padding = vg.Length(fontSize * 0.4) // room for descenders between the entries
 
 	// The axes' ranges in SI, then the display units that suit them.
 	x0, x1, y0, y1, ok := c.dataRange()

@@ -221,14 +221,20 @@ func (m *Map) draw(c canvas, W, H float64) {
 	}
 	drawColourBar(c, m.colors(), f.x0+f.pw+st.font*1.2, f.y0, barW, f.ph, lo, hi, disp.Div, over, under, levels, label, st)
 
-	// Title and subtitle, left-aligned with the plot and shrunk to fit the
-	// picture's width.
+	// Title and subtitle, left-aligned with the plot; all of them from the
+	// picture's left edge when one would not fit otherwise, and shrunk to
+	// fit the picture's width if they must.
 	y := shift + st.font*0.8 + st.title
+	x := f.x0
+	fitsFrom := func(s string, size float64) bool { w, _ := c.measure(s, size); return x+w <= W-st.font*0.5 }
+	ok := fitsFrom(m.Title, st.title)
+	for _, l := range sub {
+		ok = ok && fitsFrom(l, st.font)
+	}
+	if !ok {
+		x = st.font * 0.5
+	}
 	line := func(s string, y, size float64, col color.Color) {
-		x := f.x0
-		if w, _ := c.measure(s, size); x+w > W-st.font*0.5 {
-			x = st.font * 0.5 // start at the picture's left edge when that makes it fit
-		}
 		c.text(s, x, y, fitSize(c, s, size, W-x-st.font*0.5), col, 0, 0, 0)
 	}
 	line(m.Title, y, st.title, black)

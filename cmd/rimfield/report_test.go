@@ -326,8 +326,8 @@ func TestReportElectrostaticSections(t *testing.T) {
 		t.Errorf("stored energy %q, want %g J/m in mJ/m", energy, want)
 	}
 
-	// Forces: each component as results.json, or 0 below 1e-9 of the
-	// largest.
+	// Forces: each component as results.json, or 0 below forceResolution
+	// of the largest.
 	rows = firstTable(section(blocks, "Forces on the conductors"))
 	if len(rows) != 4 {
 		t.Fatalf("forces table %v", rows)
@@ -340,9 +340,9 @@ func TestReportElectrostaticSections(t *testing.T) {
 		for k, key := range []string{"fx", "fy"} {
 			want := num(t, e, "forces", i, key)
 			got := cellValue(t, row[k+1], headerUnit(t, rows[0][k+1]))
-			if math.Abs(want) < 1e-9*largest {
+			if math.Abs(want) < forceResolution*largest {
 				if row[k+1] != "0" {
-					t.Errorf("%s %s = %s, want 0 (rounding noise %g N/m)", row[0], key, row[k+1], want)
+					t.Errorf("%s %s = %s, want 0 (below the resolution: %g N/m)", row[0], key, row[k+1], want)
 				}
 			} else if !closeShown(got, want) {
 				t.Errorf("%s %s = %s, want %g N/m", row[0], key, row[k+1], want)
