@@ -393,7 +393,8 @@ func headline(j *job) string {
 //   - electrostatics with two fixed conductors: the capacitance between
 //     them, -C12 of the Maxwell matrix; with three, the three partial
 //     capacitances between them; with more, the first conductor's
-//     self-capacitance C11.
+//     self-capacitance C11; with one, its capacitance to ground when it
+//     has one (a ground plane).
 //   - seepage: the discharge.
 //   - otherwise: what flows in through the boundary at the highest fixed
 //     potential (or the floating body with the largest net inflow).
@@ -423,15 +424,16 @@ func mainResult(j *job) (main, peak string) {
 	return boundaryResult(j, units), peak
 }
 
-// capacitanceText states the capacitances of an electrostatic section with
-// two or more fixed conductors, or "".
+// capacitanceText states the capacitances of an electrostatic section's
+// fixed conductors, or "" when there are none (or one with nothing to
+// return its field to).
 func capacitanceText(e *electrostaticSection) string {
 	if e == nil || e.Capacitance == nil {
 		return ""
 	}
 	c := e.Capacitance
 	n := len(c.Conductors)
-	if n < 2 || len(c.Matrix) != n {
+	if n < 1 || len(c.Matrix) != n {
 		return ""
 	}
 	for _, row := range c.Matrix {
@@ -440,6 +442,16 @@ func capacitanceText(e *electrostaticSection) string {
 		}
 	}
 	switch n {
+	case 1:
+		// One fixed conductor: its capacitance to ground (a ground plane,
+		// a floating body's surroundings). Zero to rounding when nothing
+		// takes its field lines back (an open scene without a ground):
+		// C/eps0 is a shape factor of order 0.1 to 100 in two dimensions,
+		// and 1e-6 would need a gap ratio of exp(2 pi 1e6).
+		if v := float64(c.Matrix[0][0]); v > 1e-6*geom.Eps0 {
+			return fmt.Sprintf("C = %s between %q and ground", draw.FormatSI(v, "F/m"), c.Conductors[0])
+		}
+		return ""
 	case 2:
 		return fmt.Sprintf("C = %s between %q and %q", draw.FormatSI(-float64(c.Matrix[0][1]), "F/m"), c.Conductors[0], c.Conductors[1])
 	case 3:

@@ -392,11 +392,14 @@ var errNotLocation = errors.New("not a location (x, y) mm")
 // 1994, table 5.11 [from memory]), and a coaxial pair of radii 1.2 mm and
 // 4 mm, C = 2 pi eps0 / ln(b/a) = 46.21 pF/m (any electrostatics text);
 // the three-conductor matrix puts the second between each wire and a
-// shield.
+// shield. A wire of radius a at height h over a grounded plane has
+// C = 2 pi eps0 / acosh(h/a) (the same table; the image method): 18.59 pF/m
+// for 0.5 mm at 5 mm.
 func TestCapacitanceText(t *testing.T) {
 	const eps0 = 8.8541878128e-12 // F/m, CODATA 2018
 	a := math.Pi * eps0 / math.Acosh(3)
 	b := 2 * math.Pi * eps0 / math.Log(4/1.2)
+	w := 2 * math.Pi * eps0 / math.Acosh(10) // wire of radius 0.5 mm, 5 mm above ground: its image 10 mm away
 	sec := func(names []string, m [][]float64) *electrostaticSection {
 		return &electrostaticSection{Capacitance: &capacitance{Conductors: names, Matrix: numbers2(m)}}
 	}
@@ -412,7 +415,8 @@ func TestCapacitanceText(t *testing.T) {
 			"capacitances core–outer 0, core–can 46.21, outer–can 15.78 pF/m"},
 		{sec([]string{"p", "q", "r", "s"}, [][]float64{{a + b, -a, -b, 0}, {-a, a, 0, 0}, {-b, 0, b, 0}, {0, 0, 0, 0}}),
 			`self-capacitance C11 = 61.99 pF/m of "p" (4 conductors: matrix in the report)`},
-		{sec([]string{"alone"}, [][]float64{{a}}), ""},
+		{sec([]string{"wire"}, [][]float64{{w}}), `C = 18.59 pF/m between "wire" and ground`},
+		{sec([]string{"alone"}, [][]float64{{1e-26}}), ""}, // an open scene without ground
 		{nil, ""},
 	} {
 		if got := capacitanceText(c.e); got != c.want {
