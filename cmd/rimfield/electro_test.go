@@ -161,12 +161,12 @@ func TestElectrostaticExtras(t *testing.T) {
 // margin is listed. The ratio is the peak field over 3e6.
 func TestAirBreakdownFlag(t *testing.T) {
 	scene := filepath.Join(t.TempDir(), "wire.geojson")
-	if _, _, err := runArgs(t, "new", "wire-over-ground", "-o", scene); err != nil {
+	if _, _, err := runArgs(t, "new", "wire-over-ground", "--sides", "64", "-o", scene); err != nil {
 		t.Fatal(err)
 	}
 	for _, air := range []bool{false, true} {
 		dir := filepath.Join(t.TempDir(), "out")
-		args := []string{"solve", scene, "-o", dir, "--quiet", "--no-images"}
+		args := []string{"solve", scene, "-o", dir, "--quiet", "--no-images", "--panels", "100"}
 		if air {
 			args = append(args, "--air-breakdown")
 		}
