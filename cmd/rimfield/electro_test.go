@@ -166,7 +166,7 @@ func TestAirBreakdownFlag(t *testing.T) {
 	}
 	for _, air := range []bool{false, true} {
 		dir := filepath.Join(t.TempDir(), "out")
-		args := []string{"solve", scene, "-o", dir, "--quiet", "--no-images", "--panels", "100"}
+		args := []string{"solve", scene, "-o", dir, "--quiet", "--no-images", "--panels", "128"}
 		if air {
 			args = append(args, "--air-breakdown")
 		}
