@@ -498,14 +498,7 @@ func (r *region) components() []region {
 func (r *region) loopWinding(loop []int, p r2.Vec) int {
 	w := 0
 	for _, k := range loop {
-		a, b := r.sides[k].frame.a, r.sides[k].frame.b
-		if a.Y <= p.Y {
-			if b.Y > p.Y && r2.Cross(r2.Sub(b, a), r2.Sub(p, a)) > 0 {
-				w++
-			}
-		} else if b.Y <= p.Y && r2.Cross(r2.Sub(b, a), r2.Sub(p, a)) < 0 {
-			w--
-		}
+		w += crossing(r.sides[k].frame.a, r.sides[k].frame.b, p)
 	}
 	return w
 }

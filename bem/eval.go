@@ -19,15 +19,24 @@ func (r *region) winding(pr *problem, p r2.Vec) int {
 		if s.sign < 0 {
 			a, b = b, a
 		}
-		if a.Y <= p.Y {
-			if b.Y > p.Y && r2.Cross(r2.Sub(b, a), r2.Sub(p, a)) > 0 {
-				w++
-			}
-		} else if b.Y <= p.Y && r2.Cross(r2.Sub(b, a), r2.Sub(p, a)) < 0 {
-			w--
-		}
+		w += crossing(a, b, p)
 	}
 	return w
+}
+
+// crossing is the contribution of the oriented edge a->b to the winding
+// number about p: +1 when it crosses the rightward ray from p upwards with p
+// on its left, -1 when it crosses downwards with p on its right, else 0
+// (Sunday's crossing rule; half-open in y so shared vertices count once).
+func crossing(a, b, p r2.Vec) int {
+	if a.Y <= p.Y {
+		if b.Y > p.Y && r2.Cross(r2.Sub(b, a), r2.Sub(p, a)) > 0 {
+			return 1
+		}
+	} else if b.Y <= p.Y && r2.Cross(r2.Sub(b, a), r2.Sub(p, a)) < 0 {
+		return -1
+	}
+	return 0
 }
 
 // Locate returns the region of the domain that contains p, or geom.Outside

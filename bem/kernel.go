@@ -48,6 +48,17 @@ func subtended(x, a, b r2.Vec) float64 {
 	return math.Atan2(r2.Cross(da, db), r2.Dot(da, db))
 }
 
+// local returns the target's place in the panel's frame: eta0 = (x-a).n,
+// alpha = -xi0 and beta = L - xi0 with xi0 = (x-a).t, and the squared
+// distances rho_a^2 and rho_b^2 to the ends.
+func (p *panelFrame) local(x r2.Vec) (eta0, alpha, beta, ra2, rb2 float64) {
+	xa := r2.Sub(x, p.a)
+	xi0 := r2.Dot(xa, p.t)
+	eta0 = r2.Dot(xa, p.n)
+	alpha, beta = -xi0, p.l-xi0
+	return eta0, alpha, beta, xi0*xi0 + eta0*eta0, beta*beta + eta0*eta0
+}
+
 // logRatio returns ln(rho_b/rho_a) given rho_a^2 and the exact difference
 // rho_b^2 - rho_a^2, accurately also when the two are close.
 func logRatio(ra2, diff float64) float64 {
@@ -62,19 +73,13 @@ func (p *panelFrame) integrals(x r2.Vec, self bool) (sl, dl float64) {
 		h := 0.5 * p.l
 		return -inv2Pi * (p.l*math.Log(h) - p.l), 0
 	}
-	xa := r2.Sub(x, p.a)
-	xi0 := r2.Dot(xa, p.t)
-	eta0 := r2.Dot(xa, p.n)
-	alpha := -xi0
-	beta := p.l - xi0
-	ra2 := xi0*xi0 + eta0*eta0
+	eta0, alpha, beta, ra2, rb2 := p.local(x)
 	theta := subtended(x, p.a, p.b)
 	var lnInt float64
 	switch {
 	case ra2 == 0: // x at a
 		lnInt = p.l*math.Log(p.l) - p.l
 	default:
-		rb2 := beta*beta + eta0*eta0
 		if rb2 == 0 { // x at b
 			lnInt = -alpha*0.5*math.Log(ra2) - p.l
 			break
@@ -92,13 +97,7 @@ func (p *panelFrame) integrals(x r2.Vec, self bool) (sl, dl float64) {
 // x in one pass (one arctangent, two logarithms). x must not lie on the
 // panel's closed segment.
 func (p *panelFrame) all(x r2.Vec) (sl, dl float64, gsl, gdl r2.Vec) {
-	xa := r2.Sub(x, p.a)
-	xi0 := r2.Dot(xa, p.t)
-	eta0 := r2.Dot(xa, p.n)
-	alpha := -xi0
-	beta := p.l - xi0
-	ra2 := xi0*xi0 + eta0*eta0
-	rb2 := beta*beta + eta0*eta0
+	eta0, alpha, beta, ra2, rb2 := p.local(x)
 	theta := subtended(x, p.a, p.b)
 	lr := logRatio(ra2, p.l*(beta+alpha))
 	lnInt := beta*lr + p.l*0.5*math.Log(ra2) - p.l - eta0*theta
