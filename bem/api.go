@@ -18,6 +18,10 @@ type Settings struct {
 	// Progress, when not nil, is called from assembly with the number of
 	// rows done out of the total. It must be safe for concurrent use.
 	Progress func(done, total int)
+	// MaxUnknowns bounds the dense system: 16 bytes per entry (the matrix
+	// and its LU factors) and a factorisation time growing as the cube.
+	// 0 means 16000 (about 4 GB and a few minutes on two cores).
+	MaxUnknowns int
 }
 
 // Data overrides the values of the owners' conditions for one solve, so

@@ -29,6 +29,16 @@ func (e *SingularError) Error() string {
 	return fmt.Sprintf("bem: the system is singular (condition estimate %.3g): some part of the domain has no fixed potential to refer to, or boundaries overlap; fix a potential on a boundary of every separate part", e.Cond)
 }
 
+// TooLargeError reports a system too large for the dense solver.
+type TooLargeError struct {
+	Unknowns, Max int
+}
+
+func (e *TooLargeError) Error() string {
+	gb := 16 * float64(e.Unknowns) * float64(e.Unknowns) / 1e9
+	return fmt.Sprintf("bem: %d unknowns are too many for the dense solver (about %.0f GB of memory; the limit is %d unknowns): ask for fewer panels", e.Unknowns, gb, e.Max)
+}
+
 // Assemble builds and factorises the system for the mesh.
 func Assemble(m *mesh.Mesh, s *Settings) (*System, error) {
 	if s == nil {
@@ -37,6 +47,13 @@ func Assemble(m *mesh.Mesh, s *Settings) (*System, error) {
 	pr, err := newProblem(m)
 	if err != nil {
 		return nil, err
+	}
+	limit := s.MaxUnknowns
+	if limit == 0 {
+		limit = 16000
+	}
+	if pr.nUnk > limit {
+		return nil, &TooLargeError{Unknowns: pr.nUnk, Max: limit}
 	}
 	sys := &System{pr: pr}
 	if sys.as, err = pr.assemble(s.Workers, s.Progress); err != nil {
@@ -47,11 +64,11 @@ func Assemble(m *mesh.Mesh, s *Settings) (*System, error) {
 	if math.IsInf(sys.cond, 0) || math.IsNaN(sys.cond) || sys.cond > 1e15 {
 		return nil, &SingularError{Cond: sys.cond}
 	}
-	limit := s.CondLimit
-	if limit == 0 {
-		limit = 1e10
+	condLimit := s.CondLimit
+	if condLimit == 0 {
+		condLimit = 1e10
 	}
-	if sys.cond > limit {
+	if sys.cond > condLimit {
 		sys.warnings = append(sys.warnings, fmt.Sprintf(
 			"the system is poorly conditioned (estimate %.3g): results may carry fewer digits; look for nearly touching boundaries or extreme panel sizes", sys.cond))
 	}

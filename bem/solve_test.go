@@ -1,7 +1,9 @@
 package bem
 
 import (
+	"errors"
 	"math"
+	"strings"
 	"sync"
 	"testing"
 
@@ -417,5 +419,15 @@ func TestProgress(t *testing.T) {
 	}
 	if calls == 0 || last != total || total != sys.Unknowns() {
 		t.Errorf("progress: %d calls, last %d of %d, unknowns %d", calls, last, total, sys.Unknowns())
+	}
+}
+
+// A system above Settings.MaxUnknowns is refused with a typed error before
+// any memory is taken.
+func TestTooLarge(t *testing.T) {
+	_, err := Assemble(coax(1, 2, 100, 1).mesh(), &Settings{MaxUnknowns: 150})
+	var tl *TooLargeError
+	if !errors.As(err, &tl) || tl.Unknowns <= 150 || !strings.Contains(err.Error(), "fewer panels") {
+		t.Fatalf("got %v, want a TooLargeError asking for fewer panels", err)
 	}
 }
