@@ -132,9 +132,11 @@ func newProblem(m *mesh.Mesh) (*problem, error) {
 		pr.length = r2.Norm(r2.Sub(hi, lo))
 	}
 	pr.regions = make([]region, len(lay.Regions))
+	// Some potential is fixed on a panel (an owner whose pieces are all
+	// covered by other bodies has no panels and fixes nothing).
 	anyFixed := false
-	for _, o := range lay.Owners {
-		if o.Cond.Kind == geom.Potential {
+	for _, p := range m.Panels {
+		if !p.Interface() && p.Cond.Kind == geom.Potential {
 			anyFixed = true
 		}
 	}
