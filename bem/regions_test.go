@@ -217,3 +217,36 @@ func TestCavityAtDegenerateScale(t *testing.T) {
 		}
 	}
 }
+
+// An interface between equal materials must be invisible: a wire (radius 1,
+// height 2) over a grounded plane inside a concentric "coating" region of
+// the background's own conductivity gives the bare wire's C/k = 2 pi /
+// acosh(h/a) = 4.770984 (shared/REFERENCES.md). This checks the image
+// kernel against the free-space kernel of the closed region across an
+// interface. With a coating of conductivity 3 the charge must rise (a
+// better-conducting layer in series; common practice). 1e-4 at 512-gons
+// (their own error about 1.3e-5).
+func TestGroundPlaneWithInclusion(t *testing.T) {
+	var q [2]float64
+	for i, kc := range []float64{1, 3} {
+		bl := newBuilder(true)
+		coat := bl.region("coat", kc, kc, false)
+		bg := bl.region("air", 1, 1, true)
+		o := bl.owner("wire", pot(1))
+		bl.lay.Ground = &geom.Ground{Y: 0}
+		c := r2.Vec{X: 0.2, Y: 2}
+		bl.ring(ngon(c, 1.5, 512, true, 0), 1, false, coat, bg, -1, geom.Condition{})
+		bl.ring(ngon(c, 1, 512, false, 0), 1, false, coat, geom.Outside, o, pot(1))
+		sol, err := Solve(bl.mesh(), nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		q[i] = sol.Owners()[o].Inflow
+	}
+	if relErr(q[0], 4.770984) > 1e-4 {
+		t.Errorf("equal materials: charge %v, want 4.770984", q[0])
+	}
+	if !(q[1] > q[0]*1.05) {
+		t.Errorf("coating of k=3: charge %v, want clearly above %v", q[1], q[0])
+	}
+}
