@@ -131,7 +131,8 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 	if err := unsupported(j.scene.Problem.Physics); err != nil {
 		return err
 	}
-	j.system, err = bem.Assemble(j.mesh, nil)
+	j.system, err = bem.Assemble(j.mesh, progressSettings(stderr, len(j.mesh.Panels), o.quiet))
+	endProgress(stderr, len(j.mesh.Panels), o.quiet)
 	if err != nil {
 		return err
 	}
