@@ -107,7 +107,13 @@ func checkSummary(path string, sc *geom.Scene, m *mesh.Mesh) string {
 	for _, c := range cautionsFor(sc, m) {
 		fmt.Fprintf(&b, "  - %s: %s\n", c.Topic, c.Text)
 		for _, at := range c.Where {
-			fmt.Fprintf(&b, "      at x = %.6g m, y = %.6g m (%s)\n", float64(at.X), float64(at.Y), at.Boundary)
+			x, y := float64(at.X), float64(at.Y)
+			if u := sceneUnit(sc); u != "m" && sc.Problem.Scale > 0 {
+				// Also in the scene's unit, as the user drew it.
+				fmt.Fprintf(&b, "      at x = %.6g m, y = %.6g m = (%.6g, %.6g) %s (%s)\n", x, y, x/sc.Problem.Scale, y/sc.Problem.Scale, u, at.Boundary)
+				continue
+			}
+			fmt.Fprintf(&b, "      at x = %.6g m, y = %.6g m (%s)\n", x, y, at.Boundary)
 		}
 	}
 	return b.String()

@@ -331,7 +331,7 @@ func TestCheckSummary(t *testing.T) {
 		"panels   8 (1 on insulated walls, 1 on interfaces",
 		"smallest 1 m, largest 3 m, graded toward 1 vertices",
 		`unknown property "colour"`,
-		"singular_corners", "x = 4 m, y = 0 m (pin)", "truncated_domain",
+		"singular_corners", "x = 4 m, y = 0 m = (4000, 0) mm (pin)", "truncated_domain",
 	} {
 		if !strings.Contains(out, want) {
 			t.Errorf("summary lacks %q:\n%s", want, out)
