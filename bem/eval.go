@@ -76,15 +76,43 @@ func (s *Solution) locatePart(p r2.Vec) int {
 // Eval returns the potential and its gradient at p, from the boundary
 // integral representation of the region containing p. The integrals are
 // exact for the discrete boundary values at any distance from the boundary.
-// Outside the domain it returns NaN values and Region geom.Outside.
+// Outside the domain, and on the boundary itself (within 1e-12 of the
+// scene's diagonal of a panel, where the boundary values Solution.U and F
+// apply), it returns NaN values and Region geom.Outside.
 func (s *Solution) Eval(p r2.Vec) Point {
+	nan := math.NaN()
+	outside := Point{U: nan, Grad: r2.Vec{X: nan, Y: nan}, Region: geom.Outside}
 	k := s.locatePart(p)
-	if k < 0 {
-		nan := math.NaN()
-		return Point{U: nan, Grad: r2.Vec{X: nan, Y: nan}, Region: geom.Outside}
+	if k < 0 || s.pr.parts[k].touches(s.pr, p, 1e-12*s.pr.length) {
+		return outside
 	}
 	u, g := s.evalIn(k, p)
 	return Point{U: u, Grad: g, Region: s.pr.parts[k].reg}
+}
+
+// touches reports whether p lies within tol of one of the part's panels.
+func (r *region) touches(pr *problem, p r2.Vec, tol float64) bool {
+	tol2 := tol * tol
+	for _, sd := range r.sides {
+		pn := &pr.m.Panels[sd.panel]
+		d := r2.Sub(pn.B, pn.A)
+		ap := r2.Sub(p, pn.A)
+		dot, dd := r2.Dot(ap, d), r2.Norm2(d)
+		var near bool
+		switch {
+		case dot <= 0:
+			near = r2.Norm2(ap) <= tol2
+		case dot >= dd:
+			near = r2.Norm2(r2.Sub(p, pn.B)) <= tol2
+		default:
+			c := r2.Cross(ap, d)
+			near = c*c <= tol2*dd
+		}
+		if near {
+			return true
+		}
+	}
+	return false
 }
 
 // evalIn evaluates the representation of part k at p.

@@ -431,3 +431,24 @@ func TestTooLarge(t *testing.T) {
 		t.Fatalf("got %v, want a TooLargeError asking for fewer panels", err)
 	}
 }
+
+// Points on the boundary itself, at a vertex or inside a panel, are not in
+// the open domain: Eval returns NaN and Outside there, finite values just
+// off it.
+func TestEvalOnBoundary(t *testing.T) {
+	sol, err := Solve(coax(1, 2, 64, 1).mesh(), nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	v := ngon(r2.Vec{}, 1, 64, false, 0)
+	mid := r2.Scale(0.5, r2.Add(v[3], v[4]))
+	for _, p := range []r2.Vec{v[3], mid} {
+		if pt := sol.Eval(p); pt.Region != geom.Outside || !math.IsNaN(pt.U) {
+			t.Errorf("on the boundary at %v: %+v", p, pt)
+		}
+		off := r2.Scale(1+1e-6, p)
+		if pt := sol.Eval(off); pt.Region != 0 || math.IsNaN(pt.U) || math.IsInf(pt.Grad.X, 0) {
+			t.Errorf("just off the boundary at %v: %+v", off, pt)
+		}
+	}
+}
