@@ -41,6 +41,7 @@ func TestWriteLines(t *testing.T) {
 	if f.Geometry.Type != "LineString" || f.Properties["level"] != 0.25 || f.Properties["unit"] != "V" {
 		t.Errorf("feature %+v", f)
 	}
+	// Metres over 1e-3 m per mm; 1e-12 allows the rounding of one division.
 	want := [][2]float64{{2.5, -1}, {3, 0}}
 	for i, c := range f.Geometry.Coordinates {
 		if math.Abs(c[0]-want[i][0]) > 1e-12 || math.Abs(c[1]-want[i][1]) > 1e-12 {

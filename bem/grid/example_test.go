@@ -11,7 +11,8 @@ import (
 
 // A flow net through a rectangle of soil 4 m long and 2 m deep with 1 m of
 // head across its short sides: 2.5 channels over 5 potential drops, shape
-// factor 2/4 (uniform flow).
+// factor 2/4 (uniform flow: q = k H width/length by Darcy's law; common
+// practice).
 func ExampleTrace() {
 	sc := &geom.Scene{
 		Problem: geom.Problem{Physics: geom.Seepage, Unit: "m", Scale: 1},
