@@ -204,25 +204,21 @@ func (s *Scene) arrange() (*arrangement, error) {
 			}
 		}
 	}
-	for i, b := range s.Bodies {
-		for _, pg := range b.Polygons {
+	addPolygons := func(kind srcKind, i int, pgs []Polygon) {
+		for _, pg := range pgs {
 			g := len(a.polys)
-			a.polys = append(a.polys, polyRef{srcBody, i})
+			a.polys = append(a.polys, polyRef{kind, i})
 			for _, r := range pg {
-				a.sources = append(a.sources, source{srcBody, i, g})
+				a.sources = append(a.sources, source{kind, i, g})
 				addRing(int32(len(a.sources)-1), r, true)
 			}
 		}
 	}
+	for i, b := range s.Bodies {
+		addPolygons(srcBody, i, b.Polygons)
+	}
 	for i, rg := range s.Regions {
-		for _, pg := range rg.Polygons {
-			g := len(a.polys)
-			a.polys = append(a.polys, polyRef{srcRegion, i})
-			for _, r := range pg {
-				a.sources = append(a.sources, source{srcRegion, i, g})
-				addRing(int32(len(a.sources)-1), r, true)
-			}
-		}
+		addPolygons(srcRegion, i, rg.Polygons)
 	}
 	for i, e := range s.Edges {
 		for _, l := range e.Lines {

@@ -27,6 +27,13 @@ func niceStep(span float64, n int) float64 {
 // ticks returns the multiples of a nice step within [lo, hi].
 func ticks(lo, hi float64, n int) (vals []float64, step float64) {
 	step = niceStep(hi-lo, n)
+	return multiples(lo, hi, step), step
+}
+
+// multiples returns the multiples of step within [lo, hi] (with a margin of
+// 1e-9 steps for rounding), an exact 0 among them.
+func multiples(lo, hi, step float64) []float64 {
+	var vals []float64
 	first := math.Ceil(lo/step - 1e-9)
 	for i := 0.0; ; i++ {
 		v := (first + i) * step
@@ -38,7 +45,7 @@ func ticks(lo, hi float64, n int) (vals []float64, step float64) {
 		}
 		vals = append(vals, v)
 	}
-	return vals, step
+	return vals
 }
 
 // niceBelow returns the largest 1, 2 or 5 times a power of ten not above x.
@@ -123,18 +130,7 @@ func (t niceTicker) Ticks(lo, hi float64) []plot.Tick {
 			step = m * p
 		}
 	}
-	var vals []float64
-	first := math.Ceil(lo/step - 1e-9)
-	for i := 0.0; ; i++ {
-		v := (first + i) * step
-		if v > hi+1e-9*step {
-			break
-		}
-		if math.Abs(v) < 1e-9*step {
-			v = 0
-		}
-		vals = append(vals, v)
-	}
+	vals := multiples(lo, hi, step)
 	var out []plot.Tick
 	for _, v := range vals {
 		out = append(out, plot.Tick{Value: v, Label: formatTick(v, step)})
@@ -144,12 +140,7 @@ func (t niceTicker) Ticks(lo, hi float64) []plot.Tick {
 	if m := step / math.Pow(10, math.Floor(math.Log10(step)+1e-9)); m > 4 {
 		minor = step / 5
 	}
-	first = math.Ceil(lo/minor - 1e-9)
-	for i := 0.0; ; i++ {
-		v := (first + i) * minor
-		if v > hi+1e-9*minor {
-			break
-		}
+	for _, v := range multiples(lo, hi, minor) {
 		if r := math.Remainder(v, step); math.Abs(r) > 1e-6*step {
 			out = append(out, plot.Tick{Value: v})
 		}

@@ -169,17 +169,22 @@ func newSegments(sol *bem.Solution) *segments {
 	return s
 }
 
+// dist2 returns the squared distance from p to segment k.
+func (s *segments) dist2(k int, p r2.Vec) float64 {
+	q := r2.Sub(p, s.a[k])
+	t := 0.0
+	if s.l2[k] > 0 {
+		t = math.Min(1, math.Max(0, r2.Dot(q, s.d[k])/s.l2[k]))
+	}
+	e := r2.Sub(q, r2.Scale(t, s.d[k]))
+	return r2.Dot(e, e)
+}
+
 // within reports whether p lies within distance r of some segment.
 func (s *segments) within(p r2.Vec, r float64) bool {
 	r2lim := r * r
 	for k := range s.a {
-		q := r2.Sub(p, s.a[k])
-		t := 0.0
-		if s.l2[k] > 0 {
-			t = math.Min(1, math.Max(0, r2.Dot(q, s.d[k])/s.l2[k]))
-		}
-		e := r2.Sub(q, r2.Scale(t, s.d[k]))
-		if r2.Dot(e, e) <= r2lim {
+		if s.dist2(k, p) <= r2lim {
 			return true
 		}
 	}
@@ -190,13 +195,7 @@ func (s *segments) within(p r2.Vec, r float64) bool {
 func (s *segments) nearest(p r2.Vec) (int, float64) {
 	best, at := math.Inf(1), -1
 	for k := range s.a {
-		q := r2.Sub(p, s.a[k])
-		t := 0.0
-		if s.l2[k] > 0 {
-			t = math.Min(1, math.Max(0, r2.Dot(q, s.d[k])/s.l2[k]))
-		}
-		e := r2.Sub(q, r2.Scale(t, s.d[k]))
-		if d := r2.Dot(e, e); d < best {
+		if d := s.dist2(k, p); d < best {
 			best, at = d, k
 		}
 	}

@@ -40,16 +40,25 @@ type flowNetInfo struct {
 	Conductivity number `json:"conductivity"` // units.conductivity: sqrt(kx ky) of the net's region
 }
 
-// flowNetFiles traces the flux lines (kept for the pictures) and puts the
-// flow net's numbers into results.json; it writes no file.
-func flowNetFiles(j *job) ([]outputFile, error) {
-	pj := j.pics
-	if pj == nil {
-		pj = &pictureJob{}
+// pictureJob returns the job's picture state, with the defaults when the
+// job came without picture flags (tests, library use).
+func (j *job) pictureJob() (*pictureJob, error) {
+	if j.pics == nil {
+		pj := &pictureJob{}
 		if err := pj.check(); err != nil {
 			return nil, err
 		}
 		j.pics = pj
+	}
+	return j.pics, nil
+}
+
+// flowNetFiles traces the flux lines (kept for the pictures) and puts the
+// flow net's numbers into results.json; it writes no file.
+func flowNetFiles(j *job) ([]outputFile, error) {
+	pj, err := j.pictureJob()
+	if err != nil {
+		return nil, err
 	}
 	pj.net = grid.Trace(j.sol, j.window(), j.levels+1, grid.TraceOptions{})
 	if n := pj.net; pj.res != nil && n.Channels > 0 {
@@ -188,13 +197,9 @@ func quantityNames(p geom.Physics) (potential, potUnit, field, fieldUnit string)
 // pictureFiles draws potential.png, field.png and boundary.png (and their
 // SVGs with --svg).
 func pictureFiles(j *job) ([]outputFile, error) {
-	pj := j.pics
-	if pj == nil {
-		pj = &pictureJob{}
-		if err := pj.check(); err != nil {
-			return nil, err
-		}
-		j.pics = pj
+	pj, err := j.pictureJob()
+	if err != nil {
+		return nil, err
 	}
 	g := j.sampled()
 	sc := j.scene

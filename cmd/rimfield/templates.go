@@ -24,13 +24,13 @@ conductor as a body at --voltage and the shield as an edge at 0 V. With
 --unit.`,
 		flags: func(fs *pflag.FlagSet) func() ([]byte, error) {
 			var c tpl.Coaxial
-			fs.StringVar(&c.Unit, "unit", tpl.DefaultUnit, "coordinate unit of the scene file and of the lengths below: m, cm, mm, um, km, in or ft")
+			unitFlag(fs, &c.Unit)
 			fs.Float64Var(&c.Inner, "inner", 1.2, "radius of the inner conductor, in --unit")
 			fs.Float64Var(&c.Outer, "outer", 4, "inner radius of the shield, in --unit")
 			fs.Float64Var(&c.Offset, "offset", 0, "offset of the inner conductor's centre from the shield's along x, in --unit")
 			fs.Float64Var(&c.Permittivity, "permittivity", 2.1, "relative permittivity of the filler (1 for air)")
 			fs.Float64Var(&c.Voltage, "voltage", 1, "potential of the inner conductor in volts (the shield is at 0 V)")
-			fs.IntVar(&c.Sides, "sides", tpl.DefaultSides, "vertices of the polygon that stands for each circle, a count (at least 16)")
+			sidesFlag(fs, &c.Sides, "each circle")
 			return func() ([]byte, error) { return templateBytes(c.Bytes()) }
 		},
 	})
@@ -42,12 +42,12 @@ apart on the x axis: the left wire at +voltage/2, the right one at
 -voltage/2. Lengths are in --unit.`,
 		flags: func(fs *pflag.FlagSet) func() ([]byte, error) {
 			var w tpl.TwoWire
-			fs.StringVar(&w.Unit, "unit", tpl.DefaultUnit, "coordinate unit of the scene file and of the lengths below: m, cm, mm, um, km, in or ft")
+			unitFlag(fs, &w.Unit)
 			fs.Float64Var(&w.Radius, "radius", 0.5, "radius of each wire, in --unit")
 			fs.Float64Var(&w.Spacing, "spacing", 3, "distance between the wires' centres, in --unit")
 			fs.Float64Var(&w.Permittivity, "permittivity", 1, "relative permittivity of the surrounding medium (1 for air)")
 			fs.Float64Var(&w.Voltage, "voltage", 1, "potential difference between the wires in volts")
-			fs.IntVar(&w.Sides, "sides", tpl.DefaultSides, "vertices of the polygon that stands for each circle, a count (at least 16)")
+			sidesFlag(fs, &w.Sides, "each circle")
 			return func() ([]byte, error) { return templateBytes(w.Bytes()) }
 		},
 	})
@@ -59,12 +59,12 @@ with the "ground" member of its problem rather than drawing it. The wire is
 at --voltage, the plane at 0 V. Lengths are in --unit.`,
 		flags: func(fs *pflag.FlagSet) func() ([]byte, error) {
 			var w tpl.WireOverGround
-			fs.StringVar(&w.Unit, "unit", tpl.DefaultUnit, "coordinate unit of the scene file and of the lengths below: m, cm, mm, um, km, in or ft")
+			unitFlag(fs, &w.Unit)
 			fs.Float64Var(&w.Radius, "radius", 0.5, "radius of the wire, in --unit")
 			fs.Float64Var(&w.Height, "height", 5, "height of the wire's centre above the plane, in --unit")
 			fs.Float64Var(&w.Permittivity, "permittivity", 1, "relative permittivity of the medium above the plane (1 for air)")
 			fs.Float64Var(&w.Voltage, "voltage", 1, "potential of the wire in volts (the plane is at 0 V)")
-			fs.IntVar(&w.Sides, "sides", tpl.DefaultSides, "vertices of the polygon that stands for the circle, a count (at least 16)")
+			sidesFlag(fs, &w.Sides, "the circle")
 			return func() ([]byte, error) { return templateBytes(w.Bytes()) }
 		},
 	})
@@ -77,13 +77,13 @@ centre, the left one at +voltage/2 and the right one at -voltage/2; the
 shield is an edge at 0 V. Lengths are in --unit.`,
 		flags: func(fs *pflag.FlagSet) func() ([]byte, error) {
 			var s tpl.ShieldedPair
-			fs.StringVar(&s.Unit, "unit", tpl.DefaultUnit, "coordinate unit of the scene file and of the lengths below: m, cm, mm, um, km, in or ft")
+			unitFlag(fs, &s.Unit)
 			fs.Float64Var(&s.Radius, "radius", 0.5, "radius of each wire, in --unit")
 			fs.Float64Var(&s.Spacing, "spacing", 2, "distance between the wires' centres, in --unit")
 			fs.Float64Var(&s.Shield, "shield", 3, "inner radius of the shield, in --unit")
 			fs.Float64Var(&s.Permittivity, "permittivity", 2.1, "relative permittivity of the filler (1 for air)")
 			fs.Float64Var(&s.Voltage, "voltage", 1, "potential difference between the wires in volts (the shield is at 0 V)")
-			fs.IntVar(&s.Sides, "sides", tpl.DefaultSides, "vertices of the polygon that stands for each circle, a count (at least 16)")
+			sidesFlag(fs, &s.Sides, "each circle")
 			return func() ([]byte, error) { return templateBytes(s.Bytes()) }
 		},
 	})
@@ -97,4 +97,15 @@ func templateBytes(data []byte, err error) ([]byte, error) {
 		return nil, usagef("--%s: %s", strings.ToLower(te.Param), te.Msg)
 	}
 	return data, err
+}
+
+// unitFlag defines --unit, the coordinate unit every template takes.
+func unitFlag(fs *pflag.FlagSet, unit *string) {
+	fs.StringVar(unit, "unit", tpl.DefaultUnit, "coordinate unit of the scene file and of the lengths below: m, cm, mm, um, km, in or ft")
+}
+
+// sidesFlag defines --sides, the polygon's vertex count for what (each
+// circle, the circle).
+func sidesFlag(fs *pflag.FlagSet, sides *int, what string) {
+	fs.IntVar(sides, "sides", tpl.DefaultSides, "vertices of the polygon that stands for "+what+", a count (at least 16)")
 }
