@@ -1407,11 +1407,11 @@ func (rd *sceneReader) shape(rf *readFeature) error {
 			return p.X >= b[0].X && p.X <= b[1].X && p.Y >= b[0].Y && p.Y <= b[1].Y
 		}
 		for ri := 1; ri < len(poly); ri++ {
-			if !readInside(poly[ri][0], poly[0]) {
+			if !poly[0].Contains(poly[ri][0]) {
 				return ef("%s (a hole) lies outside its outer ring %s; in GeoJSON the first ring of a polygon is its outline and the others are holes inside it: put a separate outline in a MultiPolygon, or in a feature of its own", path(ri), path(0)[5:])
 			}
 			for rj := 1; rj < len(poly); rj++ {
-				if rj != ri && inBox(poly[ri][0], rj) && readInside(poly[ri][0], poly[rj]) {
+				if rj != ri && inBox(poly[ri][0], rj) && poly[rj].Contains(poly[ri][0]) {
 					return ef("%s (a hole) lies inside %s, another hole of the same polygon; remove the inner hole, or give it a feature of its own", path(ri), path(rj)[5:])
 				}
 			}
@@ -1522,23 +1522,6 @@ func readReverse(ring Ring) {
 	for i, j := 0, len(ring)-1; i < j; i, j = i+1, j-1 {
 		ring[i], ring[j] = ring[j], ring[i]
 	}
-}
-
-// readInside reports whether p lies inside ring (crossing number; p is
-// assumed not on the ring).
-func readInside(p r2.Vec, ring Ring) bool {
-	in := false
-	n := len(ring)
-	for i, j := 0, n-1; i < n; j, i = i, i+1 {
-		a, b := ring[i], ring[j]
-		if (a.Y > p.Y) != (b.Y > p.Y) {
-			x := a.X + (p.Y-a.Y)*(b.X-a.X)/(b.Y-a.Y)
-			if p.X < x {
-				in = !in
-			}
-		}
-	}
-	return in
 }
 
 // readContact is where two sides of a polygon's rings meet.

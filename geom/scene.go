@@ -1,6 +1,8 @@
 package geom
 
 import (
+	"math"
+
 	"gonum.org/v1/gonum/spatial/r2"
 )
 
@@ -167,4 +169,39 @@ type Scene struct {
 	Regions  []Region
 	Edges    []Edge
 	Warnings []string // unknown property keys and similar, one sentence each
+}
+
+// Area returns the area the ring encloses, positive whatever its direction.
+func (r Ring) Area() float64 {
+	a := 0.0
+	for i := range r {
+		p, q := r[i], r[(i+1)%len(r)]
+		a += p.X*q.Y - q.X*p.Y
+	}
+	return math.Abs(a) / 2
+}
+
+// Contains reports whether p lies inside the ring (crossing number; a point
+// on the ring may get either answer).
+func (r Ring) Contains(p r2.Vec) bool {
+	in := false
+	for i, j := 0, len(r)-1; i < len(r); j, i = i, i+1 {
+		a, b := r[i], r[j]
+		if (a.Y > p.Y) != (b.Y > p.Y) && p.X < a.X+(p.Y-a.Y)*(b.X-a.X)/(b.Y-a.Y) {
+			in = !in
+		}
+	}
+	return in
+}
+
+// Contains reports whether p lies inside the polygon: inside its outer ring
+// and outside its holes (even-odd over all rings).
+func (pg Polygon) Contains(p r2.Vec) bool {
+	in := false
+	for _, r := range pg {
+		if r.Contains(p) {
+			in = !in
+		}
+	}
+	return in
 }

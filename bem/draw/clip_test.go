@@ -15,7 +15,7 @@ func TestClip(t *testing.T) {
 	w := grid.Window{Min: r2.Vec{X: 0, Y: 0}, Max: r2.Vec{X: 2, Y: 2}}
 	// A square half out of the window keeps half its area.
 	c := clipRing(geom.Ring{{X: 1, Y: 0.5}, {X: 3, Y: 0.5}, {X: 3, Y: 1.5}, {X: 1, Y: 1.5}}, w)
-	if a := ringArea(c); math.Abs(a-1) > 1e-12 {
+	if a := c.Area(); math.Abs(a-1) > 1e-12 {
 		t.Errorf("clipped area %v, want 1", a)
 	}
 	if clipRing(geom.Ring{{X: 5, Y: 5}, {X: 6, Y: 5}, {X: 6, Y: 6}}, w) != nil {

@@ -603,7 +603,7 @@ func (m *Map) drawLabels(c canvas, f frame, st style, geo clippedScene, placed [
 		bw, bh := p1.X-p0.X, p0.Y-p1.Y
 		tw, th := c.measure(b.name, st.font)
 		at := f.px(labelPoint(pg))
-		if tw+4 <= bw && th*1.6 <= bh && insidePolygon(pg, f.world(at.X, at.Y)) {
+		if tw+4 <= bw && th*1.6 <= bh && pg.Contains(f.world(at.X, at.Y)) {
 			haloText(c, b.name, at.X, at.Y, st.font, black, 0.5, 0.5)
 			placed = append(placed, textBox(at.X, at.Y, tw, th, 0.5, 0.5, pad))
 			continue
@@ -674,12 +674,12 @@ func (m *Map) regionLabel(c canvas, f frame, st style, rg named, bodies []named,
 		for _, fx := range []float64{0, 0.25, 0.5, 0.75, 1} {
 			for _, fy := range []float64{0, 0.5, 1} {
 				p := f.world(b.x0+fx*(b.x1-b.x0), b.y0+fy*(b.y1-b.y0))
-				if !insidePolygon(pg, p) {
+				if !pg.Contains(p) {
 					return b, false
 				}
 				for _, bd := range bodies {
 					for _, bp := range bd.polygons {
-						if insidePolygon(bp, p) {
+						if bp.Contains(p) {
 							return b, false
 						}
 					}
@@ -689,7 +689,7 @@ func (m *Map) regionLabel(c canvas, f frame, st style, rg named, bodies []named,
 		return b, true
 	}
 	polys := append([]geom.Polygon(nil), rg.polygons...)
-	sort.SliceStable(polys, func(i, j int) bool { return ringArea(polys[i][0]) > ringArea(polys[j][0]) })
+	sort.SliceStable(polys, func(i, j int) bool { return polys[i][0].Area() > polys[j][0].Area() })
 	for _, pg := range polys {
 		for _, at := range labelPoints(pg) {
 			p := f.px(at)
@@ -721,40 +721,16 @@ func ringBounds(r geom.Ring) (lo, hi r2.Vec) {
 	return lo, hi
 }
 
-func ringArea(r geom.Ring) float64 {
-	a := 0.0
-	for i := range r {
-		p, q := r[i], r[(i+1)%len(r)]
-		a += p.X*q.Y - q.X*p.Y
-	}
-	return math.Abs(a) / 2
-}
-
 func largestPolygon(ps []geom.Polygon) geom.Polygon {
 	best, at := -1.0, 0
 	for i, pg := range ps {
 		if len(pg) > 0 {
-			if a := ringArea(pg[0]); a > best {
+			if a := pg[0].Area(); a > best {
 				best, at = a, i
 			}
 		}
 	}
 	return ps[at]
-}
-
-// insidePolygon reports whether p is inside the polygon (holes excluded),
-// by the even-odd rule.
-func insidePolygon(pg geom.Polygon, p r2.Vec) bool {
-	in := false
-	for _, r := range pg {
-		for i := range r {
-			a, b := r[i], r[(i+1)%len(r)]
-			if (a.Y > p.Y) != (b.Y > p.Y) && p.X < a.X+(p.Y-a.Y)*(b.X-a.X)/(b.Y-a.Y) {
-				in = !in
-			}
-		}
-	}
-	return in
 }
 
 // labelPoint returns a point well inside the polygon: the middle of the
