@@ -60,7 +60,7 @@ var (
 	readPropertyKeys = []string{"part", "name", "potential", "flux", "floating", "net_inflow",
 		"k", "kx", "ky", "permittivity", "breakdown_field", "kutta"}
 	readProblemKeys = []string{"physics", "unit", "open", "background_permittivity",
-		"background_k", "unit_weight_water", "critical_gradient", "stream", "chord", "ground"}
+		"background_k", "unit_weight_water", "critical_gradient", "stream", "chord", "density", "ground"}
 	readPhysicsNames = []string{"laplace", "electrostatic", "seepage", "flow"}
 	readPartNames    = []string{"body", "region", "edge"}
 	readGeomTypes    = []string{"Point", "MultiPoint", "LineString", "MultiLineString",
@@ -673,6 +673,11 @@ func (rd *sceneReader) problem(v any) error {
 			return err
 		}
 		p.Chord = c * rd.scale
+		// Air at sea level in the International Standard Atmosphere (ISO
+		// 2533:1975; common practice).
+		if p.Density, err = positive("density", 1.225, "the fluid density in kg/m^3 (1.225 for air at sea level, about 1000 for water)"); err != nil {
+			return err
+		}
 	}
 	if p.Ground != nil {
 		p.Ground.Y *= rd.scale
@@ -691,7 +696,8 @@ var readProblemPhysics = map[string][]Physics{
 	"critical_gradient":       {Seepage},
 	"stream":                  {Flow},
 	"chord":                   {Flow},
-	"ground":                  {Electrostatic},
+	"density":                 {Flow},
+	"ground":                  {Electrostatic, Flow},
 }
 
 // readProblemHint adds the right member for a common mix-up.
@@ -1683,6 +1689,13 @@ func (rd *sceneReader) finish() error {
 	}
 	if p.Physics == Flow && p.Open && p.Stream == nil {
 		return rd.errf(-1, "", "problem.stream", `missing; an open flow scene needs the uniform stream at infinity: add "stream": {"speed": 1, "angle_deg": 0}`)
+	}
+	if p.Physics == Flow && p.Ground != nil && p.Stream != nil {
+		// A slip wall along y = Y0 is a streamline only for a stream
+		// along it.
+		if a := math.Mod(p.Stream.AngleDeg, 180); a != 0 {
+			return rd.errf(-1, "", "problem.stream.angle_deg", "is %s degrees, and over a ground plane the stream must run along it (0 or 180 degrees): set \"angle_deg\": 0 and pitch the section to its angle of attack instead", readFmt(p.Stream.AngleDeg))
+		}
 	}
 	if !p.Open && potentials == 0 {
 		return rd.errf(-1, "", "", `no reference potential: a closed scene fixes the potential only up to a constant unless some body or edge has a fixed "potential"; add "potential": 0 to one edge or body`)

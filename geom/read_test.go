@@ -207,6 +207,37 @@ func TestReadFlowKutta(t *testing.T) {
 	}
 }
 
+// A flow scene in millimetres over a ground plane (a slip wall), in water:
+// the density is taken as given, the ground height and the Kutta point are
+// converted to metres, and a scene without "density" gets 1.225 kg/m^3,
+// air at sea level in the International Standard Atmosphere (ISO
+// 2533:1975; common practice).
+func TestReadFlowGroundMillimetres(t *testing.T) {
+	sc := readTestFile(t, "flow_ground_mm.geojson")
+	p := sc.Problem
+	if p.Physics != Flow || p.Scale != 1e-3 || !p.Open || p.Density != 998.2 {
+		t.Fatalf("problem = %+v", p)
+	}
+	if p.Ground == nil || !readTestClose(p.Ground.Y, -0.04) {
+		t.Errorf("ground = %+v, want y = -0.04 m", p.Ground)
+	}
+	if k := sc.Bodies[0].Kutta; k == nil || k.Auto || !readTestClose(k.Point.X, 0.1) || k.Point.Y != 0 {
+		t.Errorf("Kutta = %+v, want the point (0.1, 0) m", k)
+	}
+	if _, err := sc.Layout(); err != nil {
+		t.Errorf("layout: %v", err)
+	}
+	if d := readTestFile(t, "flow_kutta.geojson").Problem.Density; d != 1.225 {
+		t.Errorf("default density %g, want 1.225 kg/m^3", d)
+	}
+	// A stream along the plane either way is accepted.
+	src := readTestScene(`{"physics": "flow", "stream": {"speed": 3, "angle_deg": -180}, "ground": {"y": -1}}`,
+		readTestPolygon(`{"part": "body", "kutta": true}`, `[[0, 0], [1, 0.1], [2, 0], [1, -0.1], [0, 0]]`))
+	if _, err := Read(strings.NewReader(src)); err != nil {
+		t.Errorf("stream at -180 degrees over a ground plane: %v", err)
+	}
+}
+
 func TestReadLaplaceClockwiseRepeated(t *testing.T) {
 	sc := readTestFile(t, "laplace_cw.geojson")
 	p := sc.Problem
@@ -278,7 +309,12 @@ var readBadCases = []struct {
 	{"feature_type_missing", 1, "type", "missing"},
 	{"floating_false", 3, "floating", "remove it"},
 	{"floating_string", 3, "floating", `got "yes"`},
+	{"density_in_electrostatic", -1, "problem.density", "flow scenes"},
 	{"flow_body_potential", 0, "potential", "wall"},
+	{"flow_density_negative", -1, "problem.density", "must be positive"},
+	{"flow_density_string", -1, "problem.density", "write it as 1.225"},
+	{"flow_ground_incidence", -1, "problem.stream.angle_deg", "pitch the section"},
+	{"flow_ground_touched", 0, "coordinates", "strictly above"},
 	{"flow_no_stream", -1, "problem.stream", "missing"},
 	{"flow_stream_speed_zero", -1, "problem.stream.speed", "positive"},
 	{"geometry_collection", 0, "geometry", "GeometryCollection"},
@@ -286,6 +322,7 @@ var readBadCases = []struct {
 	{"geometry_type_typo", 0, "geometry", `did you mean "Polygon"?`},
 	{"ground_closed", -1, "problem.ground", `"open": true`},
 	{"ground_touched", 1, "coordinates", "strictly above the grounded plane"},
+	{"ground_in_seepage", -1, "problem.ground", "electrostatic and flow"},
 	{"hole_crossing", 3, "coordinates", "crosses or touches the outer ring"},
 	{"hole_outside", 3, "coordinates", "lies outside its outer ring"},
 	{"k_and_kx", 0, "kx", "both set"},

@@ -159,7 +159,9 @@ type Problem struct {
 
 	Stream *Stream // flow
 	Chord  float64 // flow: reference chord in metres (0: found from the geometry)
-	Ground *Ground // electrostatic: grounded plane, nil when none
+	// Density is the fluid density of a flow scene in kg/m^3 (default 1.225).
+	Density float64
+	Ground  *Ground // electrostatic: grounded plane; flow: slip wall; nil when none
 }
 
 // Scene is a validated scene: the problem as the user states it, in SI units.

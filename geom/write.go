@@ -66,6 +66,12 @@ func Write(w io.Writer, sc *Scene) error {
 		if p.Chord > 0 {
 			prob["chord"] = p.Chord / scale
 		}
+		if p.Density > 0 {
+			prob["density"] = p.Density
+		}
+		if p.Ground != nil {
+			prob["ground"] = map[string]any{"y": p.Ground.Y / scale}
+		}
 	}
 
 	type entry struct {
