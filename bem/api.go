@@ -22,6 +22,24 @@ type Settings struct {
 	// and its LU factors) and a factorisation time growing as the cube.
 	// 0 means 16000 (about 4 GB and a few minutes on two cores).
 	MaxUnknowns int
+	// Kutta lists the Kutta conditions of the problem (none by default).
+	// Each replaces the total-inflow equation of a floating owner by the
+	// condition that the inflow densities of the two panels meeting at a
+	// vertex of its boundary are equal and opposite; see Kutta.
+	Kutta []Kutta
+}
+
+// Kutta is a Kutta condition at a vertex of a floating owner's boundary:
+// F_a + F_b = 0 on the panel a that ends at the vertex and the panel b that
+// starts there. With the stream function of an ideal flow as the potential,
+// F is the tangential velocity along the boundary (up to sign), and the
+// condition makes the speeds on both faces of a trailing edge equal, so
+// that the flow leaves it smoothly; the owner's circulation, its total
+// inflow, becomes an unknown fixed by that condition (its NetInflow is
+// not used).
+type Kutta struct {
+	Owner int    // index into Layout.Owners of a floating owner
+	At    r2.Vec // the vertex, metres: an end point of the owner's panels
 }
 
 // Data overrides the values of the owners' conditions for one solve, so
@@ -31,6 +49,19 @@ type Data struct {
 	// Owners has one condition per Layout.Owners entry; a nil Data or a nil
 	// slice means the conditions of the mesh.
 	Owners []geom.Condition
+	// Uniform is the gradient of a uniform incident field u0 in the
+	// unbounded background of an open scene (a uniform stream's stream
+	// function, an applied electric field):
+	//
+	//	u0(x) = Uniform.X x + Uniform.Y (y - Y0)
+	//
+	// with Y0 the height of the grounded plane (0 without one). The
+	// solution is then u = u0 + w with w, the disturbance, bounded at
+	// infinity apart from the log term of a net inflow; every condition
+	// applies to the total u, and Solution.U, F and Eval are totals. Over a
+	// grounded plane Uniform.X must be 0 (a field along the plane would
+	// cross it). The zero value means no incident field.
+	Uniform r2.Vec
 }
 
 // Solution is u and the inflow density on every panel plus the extra
@@ -47,7 +78,8 @@ type Solution struct {
 	// meaningful for floating owners, NaN for the others.
 	Floating []float64
 	// Const holds, per region, the constant of its representation: the
-	// potential at infinity for the background of an open scene, a
+	// potential at infinity for the background of an open scene (of the
+	// disturbance w when the data have an incident field), a
 	// discretisation residual (ideally 0) for a closed region (the largest
 	// over its connected parts).
 	Const []float64
@@ -55,6 +87,9 @@ type Solution struct {
 	Cond float64
 	// Warnings lists numerical concerns, one sentence each.
 	Warnings []string
+	// Uniform is the gradient of the incident field of the data (see
+	// Data.Uniform); zero without one.
+	Uniform r2.Vec
 
 	pr        *problem
 	partConst []float64   // per connected part: its constant

@@ -106,6 +106,7 @@ const (
 	rowCollocation rowKind = iota + 1
 	rowFloating            // total inflow through a floating owner
 	rowBalance             // zero total inflow into a region
+	rowKutta               // Kutta condition: replaces a floating owner's total inflow
 )
 
 type row struct {
@@ -114,10 +115,13 @@ type row struct {
 	side   int     // index into parts[region].sides (collocation)
 	owner  int     // floating owner
 	scale  float64 // the row is multiplied by this
+	// pa and pb are the two panels of a Kutta condition (rowKutta).
+	pa, pb int
 }
 
-// newProblem numbers the unknowns and equations of the mesh.
-func newProblem(m *mesh.Mesh) (*problem, error) {
+// newProblem numbers the unknowns and equations of the mesh; each Kutta
+// condition replaces the total-inflow equation of its floating owner.
+func newProblem(m *mesh.Mesh, kutta ...Kutta) (*problem, error) {
 	lay := m.Layout
 	if lay == nil {
 		return nil, fmt.Errorf("bem: mesh has no layout")
@@ -232,8 +236,16 @@ func newProblem(m *mesh.Mesh) (*problem, error) {
 			pr.rows = append(pr.rows, row{kind: rowCollocation, region: i, side: s, scale: 1})
 		}
 	}
+	kuttaRows, err := pr.kuttaRows(kutta)
+	if err != nil {
+		return nil, err
+	}
 	for o, c := range pr.floatCol {
 		if c < 0 {
+			continue
+		}
+		if rw, ok := kuttaRows[o]; ok {
+			pr.rows = append(pr.rows, rw)
 			continue
 		}
 		// Scale: inflow/kbar of the region the owner bounds, per unit length.
@@ -381,6 +393,9 @@ func (pr *problem) fillRow(i int, arow, brow []float64) {
 				put(pr.fSlot[j], rw.scale*p.Length()*pr.colScale(j))
 			}
 		}
+	case rowKutta:
+		put(pr.fSlot[rw.pa], rw.scale*pr.colScale(rw.pa))
+		put(pr.fSlot[rw.pb], rw.scale*pr.colScale(rw.pb))
 	case rowBalance:
 		r := &pr.parts[rw.region]
 		for k := range r.sides {

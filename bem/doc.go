@@ -54,6 +54,44 @@
 // factorised once by dense LU (gonum); one factorisation serves any number
 // of right-hand sides (System.Solve with Data).
 //
+// # Incident fields
+//
+// Data.Uniform applies a uniform incident field u0 = g.x (g (y - Y0) over a
+// grounded plane) in the unbounded background: a uniform stream, an
+// applied electric field. The unknowns are then the total u = u0 + w on
+// the boundary, and only the background's collocation equations change:
+//
+//	u_i/2 + sum_j H_ij u_j - sum_j G_ij F_j - C = u0(x_i)
+//
+// which is the exterior identity for the disturbance w plus the interior
+// identity for u0 over the bodies and inclusions, where u0 is harmonic
+// (incident.go). No panel values of u0 enter, so a boundary held at one
+// total potential stays exactly constant, and the right-hand side costs
+// O(n): one factorisation serves every direction and size of the field.
+//
+// # Ideal flow and the Kutta condition
+//
+// Ideal flow is solved for the stream function psi, with the stream as the
+// incident field psi_inf = U (y cos alpha - x sin alpha), rather than for a
+// disturbance velocity potential with a wake cut. Every body is a floating
+// boundary: a wall is a streamline, psi = C_k on body k with C_k unknown,
+// and the body's total inflow sum F_j L_j is its anticlockwise circulation
+// (the tangential velocity along a wall is -F, walking with the fluid on
+// the left). A body without a Kutta condition keeps the equation "total
+// inflow = 0": no circulation. A Kutta condition (Settings.Kutta) replaces
+// that equation by F_a + F_b = 0 on the two panels meeting at the trailing
+// edge: equal speeds on both faces, so the flow leaves the edge smoothly.
+// This fits the core as it is (floating boundaries, one extra row per
+// body, one constant per body), needs no cut, no wake geometry and no
+// jump conditions, gives the surface speed directly as |F| and the
+// streamlines as contours of the solved potential, and stays regular at
+// the degenerate scale (the body constants play the part of the
+// augmentation). The velocity potential with a cut would need a cut
+// geometry and a potential jump carried across it, and its
+// solution would not show streamlines as contours. A grounded plane
+// is a slip wall exactly: the image kernel holds psi = 0 on it, and the
+// stream must run along it.
+//
 // # Evaluation
 //
 // Potential and gradient at a point come from the representation of the

@@ -120,6 +120,12 @@ func (s *Solution) evalIn(k int, p r2.Vec) (float64, r2.Vec) {
 	r := &s.pr.parts[k]
 	u := s.partConst[k]
 	var g r2.Vec
+	if r.open && s.Uniform != (r2.Vec{}) {
+		// The incident field (see incident.go): its gradient is
+		// Uniform, only its height part over a grounded plane.
+		u += r.incident(s.Uniform, p)
+		g = s.Uniform
+	}
 	slopes := s.slopes[k]
 	X := r.transform(p)
 	for k := range r.sides {

@@ -7,6 +7,7 @@ import (
 	"github.com/rimfield/rimfield/geom"
 	"github.com/rimfield/rimfield/mesh"
 	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/spatial/r2"
 )
 
 // System is an assembled and factorised boundary element system; it solves
@@ -44,7 +45,7 @@ func Assemble(m *mesh.Mesh, s *Settings) (*System, error) {
 	if s == nil {
 		s = &Settings{}
 	}
-	pr, err := newProblem(m)
+	pr, err := newProblem(m, s.Kutta...)
 	if err != nil {
 		return nil, err
 	}
@@ -109,9 +110,23 @@ func (sys *System) rhs(d *Data) (*mat.VecDense, []geom.Condition, error) {
 	b := mat.NewVecDense(n, nil)
 	b.MulVec(sys.as.b, v)
 	b.ScaleVec(-1, b)
+	var uniform r2.Vec
+	if d != nil {
+		uniform = d.Uniform
+	}
+	if err := sys.pr.checkUniform(uniform); err != nil {
+		return nil, nil, err
+	}
 	for i, rw := range sys.pr.rows {
-		if rw.kind == rowFloating {
+		switch rw.kind {
+		case rowFloating:
 			b.SetVec(i, b.AtVec(i)+rw.scale*conds[rw.owner].NetInflow)
+		case rowCollocation:
+			// The incident field of the unbounded part: see incident.
+			if r := &sys.pr.parts[rw.region]; r.open && uniform != (r2.Vec{}) {
+				x := sys.pr.m.Panels[r.sides[rw.side].panel].Mid()
+				b.SetVec(i, b.AtVec(i)+rw.scale*r.incident(uniform, x))
+			}
 		}
 	}
 	return b, conds, nil
@@ -127,7 +142,11 @@ func (sys *System) Solve(d *Data) (*Solution, error) {
 	if err := sys.lu.SolveVecTo(&x, false, b); err != nil {
 		return nil, fmt.Errorf("bem: solve: %v", err)
 	}
-	return sys.solution(x.RawVector().Data, conds), nil
+	s := sys.solution(x.RawVector().Data, conds)
+	if d != nil {
+		s.Uniform = d.Uniform
+	}
+	return s, nil
 }
 
 // solution unpacks the unknown vector.
