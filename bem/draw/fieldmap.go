@@ -56,6 +56,9 @@ type Map struct {
 	// unit for the axes and the scale bar (Problem.Unit, Problem.Scale) and
 	// whether the domain is open. Nil draws the field alone, in metres.
 	Scene *geom.Scene
+	// Ground labels the grounded plane of Scene, in the words of its
+	// physics ("ground plane (0 V)"); "" means "ground plane".
+	Ground string
 	// Colors is the colour map; nil means Sequential.
 	Colors Colormap
 }
@@ -644,7 +647,10 @@ func (m *Map) drawLabels(c canvas, f frame, st style, geo clippedScene, placed [
 	}
 	if g := sc.Problem.Ground; g != nil && sc.Problem.Open && g.Y > f.win.Min.Y && g.Y < f.win.Max.Y {
 		p := f.px(r2.Vec{X: f.win.Max.X, Y: g.Y})
-		s := "ground plane (0)"
+		s := m.Ground
+		if s == "" {
+			s = "ground plane"
+		}
 		tw, th := c.measure(s, st.small)
 		haloText(c, s, p.X-st.font*0.5, p.Y+st.font*0.9, st.small, ink, 1, 0.5)
 		placed = append(placed, textBox(p.X-st.font*0.5, p.Y+st.font*0.9, tw, th, 1, 0.5, pad))

@@ -4,6 +4,12 @@
 // field on conductors and how much of it is the mesh's, the margin to
 // breakdown per region, the stored energy and the force on each conductor.
 //
+// Job is the electrostatic job of the command line (package job): it solves
+// a scene, runs Analyse, and presents the results in the words of electrical
+// engineering: results.json's electrostatic section (Section), boundary.csv's
+// charge and field columns, the headline capacitance, the report's tables
+// and the surface-field chart.
+//
 // # Conventions
 //
 // Electrostatics is the generic problem with conductivity k = eps0 eps_r

@@ -7,78 +7,56 @@ import (
 	"math"
 	"strconv"
 
-	"github.com/rimfield/rimfield/geom"
-	"github.com/rimfield/rimfield/mesh"
+	"github.com/rimfield/rimfield/bem/job"
 )
 
-// csvColumn is one column of boundary.csv: a header with its unit
-// ("inflow_C_per_m2") and one value per panel.
-type csvColumn struct {
-	Header string
-	Values []float64
-}
+// boundaryName is the file of values per panel.
+const boundaryName = "boundary.csv"
 
 // boundaryTable is boundary.csv before it is written: one row per panel.
 type boundaryTable struct {
 	names   []string // boundary name of each panel
-	columns []csvColumn
+	columns []job.Column
 }
 
-// newBoundaryTable gathers the columns of boundary.csv for a solved job:
+// newBoundaryTable gathers the columns of boundary.csv for a solved task:
 // boundary, x_m, y_m, s_m, length_m, potential_<unit>, inflow_<unit>, then
-// the columns of the physics hook.
-func newBoundaryTable(j *job) (*boundaryTable, error) {
-	m, sol := j.mesh, j.sol
+// the job's columns.
+func newBoundaryTable(t *task) (*boundaryTable, error) {
+	m, sol := t.mesh, t.sol()
 	n := len(m.Panels)
 	if len(sol.U) != n || len(sol.F) != n {
 		return nil, fmt.Errorf("internal error: solution has %d potentials and %d inflows for %d panels", len(sol.U), len(sol.F), n)
 	}
-	units := unitsOf(j.scene.Problem.Physics)
-	t := &boundaryTable{names: make([]string, n)}
+	units := t.words.Units
+	bt := &boundaryTable{names: make([]string, n)}
 	x, y, s, l := make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
 	for i, p := range m.Panels {
-		t.names[i] = panelBoundaryName(m.Layout, p)
+		bt.names[i] = job.BoundaryName(m.Layout, p)
 		mid := p.Mid()
 		x[i], y[i], s[i], l[i] = mid.X, mid.Y, p.S, p.Length()
 	}
-	t.columns = []csvColumn{
-		{"x_m", x}, {"y_m", y}, {"s_m", s}, {"length_m", l},
-		{csvHeader("potential", units.potentialCol), sol.U},
-		{csvHeader("inflow", units.densityCol), sol.F},
+	bt.columns = []job.Column{
+		{Header: "x_m", Values: x}, {Header: "y_m", Values: y}, {Header: "s_m", Values: s}, {Header: "length_m", Values: l},
+		{Header: csvHeader("potential", units.PotentialCSV), Values: sol.U},
+		{Header: csvHeader("inflow", units.DensityCSV), Values: sol.F},
 	}
-	if h, ok := physicsHooks[j.scene.Problem.Physics]; ok && h.columns != nil {
-		extra, err := h.columns(j)
-		if err != nil {
-			return nil, err
+	for _, c := range t.out.Columns {
+		if len(c.Values) != n {
+			return nil, fmt.Errorf("internal error: column %s has %d values for %d panels", c.Header, len(c.Values), n)
 		}
-		for _, c := range extra {
-			if len(c.Values) != n {
-				return nil, fmt.Errorf("internal error: column %s has %d values for %d panels", c.Header, len(c.Values), n)
-			}
-		}
-		t.columns = append(t.columns, extra...)
 	}
-	return t, nil
+	bt.columns = append(bt.columns, t.out.Columns...)
+	return bt, nil
 }
 
-// panelBoundaryName names the boundary a panel belongs to: its body or edge,
-// "interface:<left>|<right>" between two regions (inflow is then into the
-// left one), or "wall:<region>" for a region's insulated outer boundary that
-// no edge covers.
-func panelBoundaryName(lay *geom.Layout, p mesh.Panel) string {
-	region := func(i int) string {
-		if i >= 0 && i < len(lay.Regions) {
-			return lay.Regions[i].Name
-		}
-		return fmt.Sprintf("region%d", i)
+// csvHeader joins a quantity and its CSV unit: "potential_V", or "potential"
+// for a quantity without a unit.
+func csvHeader(quantity, unit string) string {
+	if unit == "" {
+		return quantity
 	}
-	switch {
-	case p.Owner >= 0 && p.Owner < len(lay.Owners) && !p.Interface():
-		return lay.Owners[p.Owner].Name
-	case p.Interface():
-		return "interface:" + region(p.Left) + "|" + region(p.Right)
-	}
-	return "wall:" + region(p.Left)
+	return quantity + "_" + unit
 }
 
 // warnings names the columns that hold NaN or infinite values, which are

@@ -6,6 +6,7 @@ import (
 	"strings"
 	"text/tabwriter"
 
+	"github.com/rimfield/rimfield/bem/job"
 	"github.com/rimfield/rimfield/geom"
 	"github.com/rimfield/rimfield/mesh"
 )
@@ -16,11 +17,16 @@ from regions, interfaces between regions), builds the panels and prints a
 summary: physics, unit, open or closed domain, the bodies and edges with
 their conditions in SI units and their panel counts, the regions with their
 materials, the smallest and largest panel, warnings and cautions. Nothing is
-solved and nothing is written. The exit status is 0 for a valid scene.`
+solved and nothing is written. The exit status is 0 for a valid scene that
+solve would accept; when solve would refuse a valid scene (a physics this
+version cannot solve yet), check prints the summary and the reason and exits
+with 1.`
 
 func runCheck(args []string, stdout, stderr io.Writer) error {
 	cl := newCommandLine("check", "rimfield check SCENE [flags]", checkAbout)
 	panels := cl.fs.Int("panels", 0, "approximate total number of boundary panels, a count `N` (0: chosen automatically), as for solve")
+	js := newJobs()
+	js.addFlags(cl.fs)
 	if helped, err := cl.parse(args, stdout); helped || err != nil {
 		return err
 	}
@@ -31,18 +37,31 @@ func runCheck(args []string, stdout, stderr io.Writer) error {
 	if *panels < 0 {
 		return usagef("check: --panels %d is negative; give a panel count, or 0 for automatic", *panels)
 	}
-	sc, m, err := prepare(pos[0], *panels)
+	sc, m, mo, err := prepare(pos[0], *panels)
 	if err != nil {
 		return err
 	}
-	_, err = io.WriteString(stdout, checkSummary(pos[0], sc, m))
-	return err
+	j, refusal := js.forScene(sc.Problem.Physics)
+	c, err := j.Check(&job.Setup{Scene: sc, Mesh: m, MeshOptions: mo})
+	if err != nil {
+		return err
+	}
+	if refusal != nil {
+		c.Refusal = refusal
+	}
+	if _, err := io.WriteString(stdout, checkSummary(pos[0], sc, m, j.Words(), c)); err != nil {
+		return err
+	}
+	if c.Refusal != nil {
+		return fmt.Errorf("check: the scene is valid, but solve would refuse it: %w", c.Refusal)
+	}
+	return nil
 }
 
-// checkSummary describes a meshed scene for a person.
-func checkSummary(path string, sc *geom.Scene, m *mesh.Mesh) string {
+// checkSummary describes a meshed scene for a person, in the job's words,
+// with what the job's check adds.
+func checkSummary(path string, sc *geom.Scene, m *mesh.Mesh, w *job.Words, c *job.Checked) string {
 	lay := m.Layout
-	u := unitsOf(sc.Problem.Physics)
 	var b strings.Builder
 	domain := "closed (bounded by its regions)"
 	if lay.Open {
@@ -59,7 +78,7 @@ func checkSummary(path string, sc *geom.Scene, m *mesh.Mesh) string {
 		b.WriteString("\nregions\n")
 		tw := tabwriter.NewWriter(&b, 0, 0, 2, ' ', 0)
 		for _, d := range lay.Regions {
-			fmt.Fprintf(tw, "  %s\t%s\n", d.Name, describeMaterial(sc.Problem.Physics, d.Material, u))
+			fmt.Fprintf(tw, "  %s\t%s\n", d.Name, w.Material(d.Material))
 		}
 		tw.Flush()
 	}
@@ -80,7 +99,7 @@ func checkSummary(path string, sc *geom.Scene, m *mesh.Mesh) string {
 			if i < len(sum.PerOwner) {
 				n = sum.PerOwner[i].Panels
 			}
-			fmt.Fprintf(tw, "  %s\t%s\t%s\t%d\t%.6g\n", o.Name, o.Part, describeCondition(o.Cond, u), n, length[i])
+			fmt.Fprintf(tw, "  %s\t%s\t%s\t%d\t%.6g\n", o.Name, o.Part, w.Condition(o.Cond), n, length[i])
 		}
 		tw.Flush()
 	}
@@ -94,6 +113,16 @@ func checkSummary(path string, sc *geom.Scene, m *mesh.Mesh) string {
 			sum.Size, sum.Smallest, sum.Largest, sum.Graded)
 	}
 
+	if len(c.Lines) > 0 {
+		b.WriteString("\n")
+		for _, l := range c.Lines {
+			fmt.Fprintf(&b, "%s\n", l)
+		}
+	}
+	if c.Refusal != nil {
+		fmt.Fprintf(&b, "\nsolve would refuse this scene: %v\n", c.Refusal)
+	}
+
 	b.WriteString("\nwarnings")
 	if len(sc.Warnings) == 0 {
 		b.WriteString(" none\n")
@@ -104,9 +133,9 @@ func checkSummary(path string, sc *geom.Scene, m *mesh.Mesh) string {
 		}
 	}
 	b.WriteString("cautions (see CAUTIONS.md)\n")
-	for _, c := range cautionsFor(sc, m) {
-		fmt.Fprintf(&b, "  - %s: %s\n", c.Topic, c.Text)
-		for _, at := range c.Where {
+	for _, cn := range c.Cautions {
+		fmt.Fprintf(&b, "  - %s: %s\n", cn.Topic, cn.Text)
+		for _, at := range cn.Where {
 			x, y := float64(at.X), float64(at.Y)
 			if u := sceneUnit(sc); u != "m" && sc.Problem.Scale > 0 {
 				// Also in the scene's unit, as the user drew it.
@@ -117,39 +146,6 @@ func checkSummary(path string, sc *geom.Scene, m *mesh.Mesh) string {
 		}
 	}
 	return b.String()
-}
-
-// describeCondition spells a boundary condition with its SI unit.
-func describeCondition(c geom.Condition, u quantityUnits) string {
-	switch c.Kind {
-	case geom.Potential:
-		return fmt.Sprintf("potential %g %s", c.Value, u.Potential)
-	case geom.Flux:
-		if c.Value == 0 {
-			return "insulated (flux 0)"
-		}
-		return fmt.Sprintf("flux %g %s", c.Value, u.InflowDensity)
-	case geom.Floating:
-		return fmt.Sprintf("floating, net inflow %g %s", c.NetInflow, u.Inflow)
-	}
-	return "none"
-}
-
-// describeMaterial spells a region's material with its SI unit.
-func describeMaterial(p geom.Physics, m geom.Material, u quantityUnits) string {
-	k := func(v float64) string {
-		if p == geom.Electrostatic {
-			return fmt.Sprintf("permittivity %.6g (relative; %.6g %s)", v/geom.Eps0, v, u.Conductivity)
-		}
-		if p == geom.Seepage {
-			return fmt.Sprintf("k %g %s", v, u.Conductivity)
-		}
-		return fmt.Sprintf("k %g", v)
-	}
-	if m.Isotropic() {
-		return k(m.Kx)
-	}
-	return "x: " + k(m.Kx) + ", y: " + k(m.Ky)
 }
 
 func plural(n int, one, many string) string {

@@ -2,14 +2,12 @@ package main
 
 import (
 	"encoding/csv"
-	"encoding/json"
 	"math"
 	"os"
 	"path/filepath"
 	"strconv"
 	"testing"
 
-	"github.com/rimfield/rimfield/bem"
 	"github.com/rimfield/rimfield/geom"
 )
 
@@ -93,65 +91,6 @@ func TestElectrostaticSection(t *testing.T) {
 		if en, m := val(row, "field_normal_V_per_m"), val(row, "field_V_per_m"); math.Abs(en-e) > tolElectro*e || m != en {
 			t.Errorf("row %d: normal field %.6g, |E| %.6g V/m, want %.6g", i, en, m, e)
 		}
-	}
-}
-
-func TestElectrostaticExtras(t *testing.T) {
-	// The extras of the coaxial example: energy C V^2 / 2, no net force
-	// (symmetry), capacitance to ground 0 (the bore takes every field line),
-	// and a peak that does not move when the panels are halved (a smooth
-	// surface).
-	sc, m, err := prepare(repoPath("examples", "coaxial", "scene.geojson"), 0)
-	if err != nil {
-		t.Fatal(err)
-	}
-	j := &job{scene: sc, mesh: m}
-	if j.system, err = bem.Assemble(m, nil); err != nil {
-		t.Fatal(err)
-	}
-	if j.sol, err = j.system.Solve(nil); err != nil {
-		t.Fatal(err)
-	}
-	sec, ex, err := electroSection(j)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if sec.Capacitance == nil || sec.PeakField == nil {
-		t.Fatalf("section %+v", sec)
-	}
-	data, err := json.Marshal(ex)
-	if err != nil {
-		t.Fatal(err)
-	}
-	var v map[string]any
-	if err := json.Unmarshal(data, &v); err != nil {
-		t.Fatal(err)
-	}
-	c := 2 * math.Pi * geom.Eps0 * coaxEps / math.Log(coaxB/coaxA)
-	if w := num(t, v, "energy_J_per_m"); math.Abs(w-c/2) > tolElectro*c/2 {
-		t.Errorf("energy %.7g J/m, want %.7g", w, c/2)
-	}
-	for i := range 2 {
-		if g := num(t, v, "partial_capacitance", "to_ground", i); math.Abs(g) > 1e-9*c {
-			t.Errorf("to_ground[%d] = %g F/m, want 0", i, g)
-		}
-		// Scale of the pull on half the pin: sigma^2/(2 eps) times its
-		// diameter, about W/a.
-		if fx, fy := num(t, v, "forces", i, "fx"), num(t, v, "forces", i, "fy"); math.Hypot(fx, fy) > 1e-6*c/coaxA {
-			t.Errorf("force on %s (%g, %g) N/m, want 0", str(t, v, "forces", i, "name"), fx, fy)
-		}
-	}
-	if mu := num(t, v, "partial_capacitance", "mutual", 0, 1); math.Abs(mu-c) > tolElectro*c {
-		t.Errorf("mutual capacitance %.7g F/m, want %.7g", mu, c)
-	}
-	if r := num(t, v, "peak_refinement", "ratio"); math.Abs(r-1) > tolElectro {
-		t.Errorf("peak refinement ratio %.6f, want 1", r)
-	}
-	if n := len(get(t, v, "singular_corners").([]any)); n != 0 {
-		t.Errorf("%d singular corners on circles", n)
-	}
-	if n := len(get(t, v, "breakdown").([]any)); n != 0 {
-		t.Errorf("%d breakdown margins without breakdown fields", n)
 	}
 }
 

@@ -113,3 +113,28 @@ func (c *commandLine) positional(names ...string) ([]string, error) {
 	}
 	return args, nil
 }
+
+// usageError is a mistake on the command line (exit status 2).
+type usageError struct{ msg string }
+
+func (e *usageError) Error() string { return e.msg }
+
+func usagef(format string, args ...any) error {
+	return &usageError{msg: fmt.Sprintf(format, args...)}
+}
+
+// addOption defines one flag bound to value, a pointer holding its default.
+func addOption(fs *pflag.FlagSet, name, usage string, value any) {
+	switch v := value.(type) {
+	case *bool:
+		fs.BoolVar(v, name, *v, usage)
+	case *int:
+		fs.IntVar(v, name, *v, usage)
+	case *float64:
+		fs.Float64Var(v, name, *v, usage)
+	case *string:
+		fs.StringVar(v, name, *v, usage)
+	default:
+		panic(fmt.Sprintf("rimfield: option --%s has a value of type %T", name, value))
+	}
+}

@@ -16,6 +16,7 @@ import (
 	"testing"
 
 	"github.com/rimfield/rimfield/bem/draw"
+	"github.com/rimfield/rimfield/bem/job"
 	"github.com/rimfield/rimfield/geom"
 )
 
@@ -317,7 +318,7 @@ func TestReport(t *testing.T) {
 		}
 	}
 	k, head := 2e-5, 6.0 // the scene's conductivity and head difference
-	if want := fmtNum(q / (k * head)); math.IsNaN(q) || !strings.Contains(html, want) {
+	if want := job.FormatNumber(q / (k * head)); math.IsNaN(q) || !strings.Contains(html, want) {
 		t.Errorf("report does not show the shape factor q/(k H) = %s", want)
 	}
 	// results.json carries the same numbers: 11 levels give 12 drops, and
@@ -334,22 +335,36 @@ func htmlEscape(s string) string {
 	return r.Replace(s)
 }
 
-// A physics adds its own charts to boundary.png through chartHooks; the
-// picture grows by one chart's height (350 pixels at least per chart).
-func TestChartHook(t *testing.T) {
-	called := false
-	chartHooks[geom.Seepage] = func(j *job) ([]*draw.Chart, error) {
-		called = true
-		pot, _ := draw.BoundarySeries(j.sol)
-		return []*draw.Chart{{Title: "pressure head", XLabel: "arc length (m)", YLabel: "m", Series: pot}}, nil
+// chartJob is a job that adds one chart of its own to boundary.png.
+type chartJob struct {
+	job.Job
+	called *bool
+}
+
+func (c chartJob) Solve(s *job.Setup) (*job.Outcome, error) {
+	out, err := c.Job.Solve(s)
+	if err != nil {
+		return nil, err
 	}
-	defer delete(chartHooks, geom.Seepage)
+	*c.called = true
+	pot, _ := draw.BoundarySeries(out.Solution)
+	out.Charts = append(out.Charts, &draw.Chart{Title: "pressure head", YLabel: "m", Series: pot})
+	return out, nil
+}
+
+// A job adds its own charts to boundary.png through its outcome; the
+// picture grows by one chart's height (350 pixels at least per chart).
+func TestJobChart(t *testing.T) {
+	called := false
+	saved := jobs[geom.Seepage]
+	jobs[geom.Seepage] = func() job.Job { return chartJob{saved(), &called} }
+	defer func() { jobs[geom.Seepage] = saved }()
 	dir := filepath.Join(t.TempDir(), "out")
 	if _, _, err := runArgs(t, "solve", pictureScene, "-o", dir, "--panels", "200", "--image-size", "900x600", "-q"); err != nil {
 		t.Fatal(err)
 	}
 	if !called {
-		t.Fatal("the chart hook was not called")
+		t.Fatal("the job's Solve was not called")
 	}
 	if w, h, _ := readPNG(t, filepath.Join(dir, "boundary.png")); w != 900 || h != 1050 {
 		t.Errorf("boundary.png is %d x %d, want 900 x 1050 (three charts)", w, h)

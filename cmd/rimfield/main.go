@@ -56,15 +56,6 @@ func init() {
 	}
 }
 
-// usageError is a mistake on the command line (exit status 2).
-type usageError struct{ msg string }
-
-func (e *usageError) Error() string { return e.msg }
-
-func usagef(format string, args ...any) error {
-	return &usageError{msg: fmt.Sprintf(format, args...)}
-}
-
 // run executes the command line args (without the program name). It is main
 // without the process: output goes to stdout and stderr, failure is the
 // returned error.

@@ -8,7 +8,9 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/spf13/pflag"
+	"github.com/rimfield/rimfield/bem/job"
+	"github.com/rimfield/rimfield/geom"
+	tpl "github.com/rimfield/rimfield/geom/template"
 )
 
 // runArgs runs the command line and returns what it printed.
@@ -173,68 +175,56 @@ func TestSolveOutputIsAFile(t *testing.T) {
 func TestNewUnknownTemplate(t *testing.T) {
 	_, _, err := runArgs(t, "new", "no-such-template")
 	wantUsageError(t, err, `template "no-such-template" unknown; available: `+templateNames())
-	if len(templates) == 0 && !strings.Contains(err.Error(), "none yet") {
-		t.Errorf("with no templates the error should say so: %v", err)
-	}
 }
 
-// A template registered the way real ones are: its flags reach the
-// builder, help lists them, -o writes a file, bad values are errors.
-func TestNewTemplateRegistry(t *testing.T) {
-	registerTemplate("test-strip", template{
-		summary: "a strip for this test",
-		flags: func(fs *pflag.FlagSet) func() ([]byte, error) {
-			width := fs.Float64("width", 1, "strip width, mm")
-			return func() ([]byte, error) {
-				if *width <= 0 {
-					return nil, errors.New("--width must be positive")
-				}
-				return []byte("strip " + pflagValue(fs, "width") + "\n"), nil
-			}
-		},
-	})
-	t.Cleanup(func() { delete(templates, "test-strip") })
-
-	out, _, err := runArgs(t, "new", "test-strip", "--width", "2.5")
-	if err != nil || out != "strip 2.5\n" {
-		t.Fatalf("got %q, %v", out, err)
+// The templates' parameters are flags of rimfield new: they reach the
+// builder, help lists them with their units, the list shows every
+// template's summary, -o writes the file stdout would get, and an unknown
+// flag is a usage error.
+func TestNewTemplateFlags(t *testing.T) {
+	def, _, err := runArgs(t, "new", "coaxial", "--sides", "16")
+	if err != nil {
+		t.Fatal(err)
 	}
-	out, _, err = runArgs(t, "new", "test-strip", "--help")
-	if err != nil || !strings.Contains(out, "--width") || !strings.Contains(out, "mm") || !strings.Contains(out, "--output") {
+	out, _, err := runArgs(t, "new", "coaxial", "--sides", "16", "--outer", "7.5")
+	if err != nil || out == def || !strings.Contains(out, "7.5") || strings.Contains(def, "7.5") {
+		t.Fatalf("--outer 7.5 did not reach the scene: %v\n%s", err, out)
+	}
+	out, _, err = runArgs(t, "new", "coaxial", "--help")
+	if err != nil || !strings.Contains(out, "--outer") || !strings.Contains(out, "in --unit") || !strings.Contains(out, "--output") {
 		t.Errorf("template help: %q, %v", out, err)
 	}
 	out, _, err = runArgs(t, "new")
-	if err != nil || !strings.Contains(out, "test-strip") || !strings.Contains(out, "a strip for this test") {
-		t.Errorf("template list: %q, %v", out, err)
+	for _, e := range tpl.Entries() {
+		if err != nil || !strings.Contains(out, e.Name) || !strings.Contains(out, e.Summary) {
+			t.Errorf("template list lacks %s: %q, %v", e.Name, out, err)
+		}
 	}
 	file := filepath.Join(t.TempDir(), "scene.geojson")
-	if _, _, err := runArgs(t, "new", "test-strip", "-o", file); err != nil {
+	if _, _, err := runArgs(t, "new", "coaxial", "--sides", "16", "-o", file); err != nil {
 		t.Fatal(err)
 	}
-	if data, err := os.ReadFile(file); err != nil || string(data) != "strip 1\n" {
+	if data, err := os.ReadFile(file); err != nil || string(data) != def {
 		t.Errorf("file holds %q, %v", data, err)
 	}
-	_, _, err = runArgs(t, "new", "test-strip", "--width", "-1")
-	wantOneLine(t, err, "new test-strip", "--width must be positive")
-	_, _, err = runArgs(t, "new", "test-strip", "--depth", "3")
+	_, _, err = runArgs(t, "new", "coaxial", "--depth", "3")
 	wantUsageError(t, err, "unknown flag: --depth")
 }
-
-func pflagValue(fs *pflag.FlagSet, name string) string { return fs.Lookup(name).Value.String() }
 
 // A panic anywhere below run is turned into one error line asking for a bug
 // report, not a trace.
 func TestPanicBecomesError(t *testing.T) {
-	registerTemplate("test-panic", template{
-		summary: "panics",
-		flags: func(fs *pflag.FlagSet) func() ([]byte, error) {
-			return func() ([]byte, error) { panic("index out of range") }
-		},
-	})
-	t.Cleanup(func() { delete(templates, "test-panic") })
-	_, _, err := runArgs(t, "new", "test-panic")
+	saved := jobs[geom.Seepage]
+	jobs[geom.Seepage] = func() job.Job { return panicJob{saved()} }
+	defer func() { jobs[geom.Seepage] = saved }()
+	_, _, err := runArgs(t, "solve", pictureScene, "-o", filepath.Join(t.TempDir(), "out"), "--panels", "200")
 	wantOneLine(t, err, "internal error", "index out of range", "report")
 }
+
+// panicJob is a job whose Solve panics, as a bug would.
+type panicJob struct{ job.Job }
+
+func (panicJob) Solve(*job.Setup) (*job.Outcome, error) { panic("index out of range") }
 
 func TestOneLine(t *testing.T) {
 	if got := oneLine("geom: feature 2:\n  bad ring\n"); got != "geom: feature 2:; bad ring" {

@@ -1,53 +1,26 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"os"
 	"path/filepath"
-	"sort"
 	"strings"
 
-	"github.com/spf13/pflag"
+	tpl "github.com/rimfield/rimfield/geom/template"
 )
 
-// template is a starter scene for a common configuration, written by
-// rimfield new. Each template registers itself from an init function in its
-// own file with registerTemplate.
-type template struct {
-	// summary is one line for the list of templates.
-	summary string
-	// about explains the configuration and its flags (shown by --help).
-	about string
-	// flags defines the template's flags on fs (each with its unit in the
-	// usage text) and returns the builder, which reads them after parsing
-	// and returns the scene file's bytes, or an error naming the flag at
-	// fault.
-	flags func(fs *pflag.FlagSet) (build func() ([]byte, error))
-}
-
-// templates holds the registered templates by name.
-var templates = map[string]template{}
-
-// registerTemplate adds a template. It panics on a duplicate name, a
-// programming error found by any run.
-func registerTemplate(name string, t template) {
-	if _, dup := templates[name]; dup {
-		panic("rimfield: template " + name + " registered twice")
-	}
-	templates[name] = t
-}
-
-// templateNames returns the registered names in order, or "none yet".
+// templateNames returns the registered template names in order, or "none
+// yet".
 func templateNames() string {
-	if len(templates) == 0 {
+	var names []string
+	for _, e := range tpl.Entries() {
+		names = append(names, e.Name)
+	}
+	if len(names) == 0 {
 		return "none yet"
 	}
-	names := make([]string, 0, len(templates))
-	for n := range templates {
-		names = append(names, n)
-	}
-	sort.Strings(names)
 	return strings.Join(names, ", ")
 }
 
@@ -71,24 +44,27 @@ func runNew(args []string, stdout, stderr io.Writer) error {
 		return listTemplates(stdout)
 	}
 	name := args[0]
-	t, ok := templates[name]
+	t, ok := tpl.Lookup(name)
 	if !ok {
 		return usagef("new: template %q unknown; available: %s", name, templateNames())
 	}
-	about := t.about
+	about := t.About
 	if about == "" {
-		about = t.summary
+		about = t.Summary
 	}
 	cl := newCommandLine("new "+name, "rimfield new "+name+" [flags]", about)
 	out := cl.fs.StringP("output", "o", "", "file to write the scene to (default: stdout); an existing file is replaced")
-	build := t.flags(cl.fs)
+	params, build := t.New()
+	for _, p := range params {
+		addOption(cl.fs, p.Name, p.Usage, p.Value)
+	}
 	if helped, err := cl.parse(args[1:], stdout); helped || err != nil {
 		return err
 	}
 	if _, err := cl.positional(); err != nil {
 		return err
 	}
-	data, err := build()
+	data, err := templateBytes(build())
 	if err != nil {
 		return fmt.Errorf("new %s: %w", name, err)
 	}
@@ -103,17 +79,27 @@ func runNew(args []string, stdout, stderr io.Writer) error {
 }
 
 func listTemplates(w io.Writer) error {
-	if len(templates) == 0 {
+	entries := tpl.Entries()
+	if len(entries) == 0 {
 		_, err := fmt.Fprintln(w, "no templates yet")
 		return err
 	}
-	names := strings.Split(templateNames(), ", ")
-	for _, n := range names {
-		if _, err := fmt.Fprintf(w, "%-16s %s\n", n, templates[n].summary); err != nil {
+	for _, e := range entries {
+		if _, err := fmt.Fprintf(w, "%-16s %s\n", e.Name, e.Summary); err != nil {
 			return err
 		}
 	}
 	return nil
+}
+
+// templateBytes turns a template's complaint about a parameter into a usage
+// error naming the flag: each parameter's flag is its name in lower case.
+func templateBytes(data []byte, err error) ([]byte, error) {
+	var te *tpl.Error
+	if errors.As(err, &te) {
+		return nil, usagef("--%s: %s", strings.ToLower(te.Param), te.Msg)
+	}
+	return data, err
 }
 
 // writeFileAtomic writes data to path through a temporary file in the same

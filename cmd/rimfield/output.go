@@ -11,6 +11,10 @@ import (
 	"strings"
 )
 
+// resultsName is the file of integrated results, which lists every file a
+// run wrote (its manifest).
+const resultsName = "results.json"
+
 // outputFile is one file solve writes: its name in the output directory and
 // how to write its content.
 type outputFile struct {
@@ -158,4 +162,12 @@ func previousFiles(dir string) []string {
 		}
 	}
 	return out
+}
+
+// bytesFile is an output file with the given content.
+func bytesFile(name string, data []byte) outputFile {
+	return outputFile{name, func(w io.Writer) error {
+		_, err := w.Write(data)
+		return err
+	}}
 }

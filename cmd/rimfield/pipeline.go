@@ -10,19 +10,20 @@ import (
 )
 
 // prepare reads and validates the scene at path, lays it out and meshes it
-// with about panels panels (0: automatic). Scene errors are *geom.Error
-// naming the file, the feature and the member.
-func prepare(path string, panels int) (*geom.Scene, *mesh.Mesh, error) {
+// with about panels panels (0: automatic), and returns the options it
+// meshed with. Scene errors are *geom.Error naming the file, the feature
+// and the member.
+func prepare(path string, panels int) (*geom.Scene, *mesh.Mesh, mesh.Options, error) {
 	info, err := os.Stat(path)
 	if err != nil {
-		return nil, nil, fmt.Errorf("cannot read scene: %w", err)
+		return nil, nil, mesh.Options{}, fmt.Errorf("cannot read scene: %w", err)
 	}
 	if info.IsDir() {
-		return nil, nil, fmt.Errorf("scene %s is a directory; give the scene file (for example %s/scene.geojson)", path, path)
+		return nil, nil, mesh.Options{}, fmt.Errorf("scene %s is a directory; give the scene file (for example %s/scene.geojson)", path, path)
 	}
 	sc, err := geom.ReadFile(path)
 	if err != nil {
-		return nil, nil, err
+		return nil, nil, mesh.Options{}, err
 	}
 	lay, err := sc.Layout()
 	if err != nil {
@@ -30,11 +31,20 @@ func prepare(path string, panels int) (*geom.Scene, *mesh.Mesh, error) {
 		if errors.As(err, &ge) && ge.File == "" {
 			ge.File = path
 		}
-		return nil, nil, err
+		return nil, nil, mesh.Options{}, err
 	}
-	m, err := mesh.Build(lay, mesh.Options{Panels: panels})
+	o := mesh.Options{Panels: panels}
+	m, err := mesh.Build(lay, o)
 	if err != nil {
-		return nil, nil, fmt.Errorf("%s: %w", path, err)
+		return nil, nil, mesh.Options{}, fmt.Errorf("%s: %w", path, err)
 	}
-	return sc, m, nil
+	return sc, m, o, nil
+}
+
+// sceneUnit returns the coordinate unit of the scene, "m" when not given.
+func sceneUnit(sc *geom.Scene) string {
+	if sc.Problem.Unit == "" {
+		return "m"
+	}
+	return sc.Problem.Unit
 }

@@ -13,17 +13,23 @@ import (
 	"testing"
 
 	"github.com/rimfield/rimfield/bem"
+	"github.com/rimfield/rimfield/bem/electro"
+	"github.com/rimfield/rimfield/bem/job"
+	"github.com/rimfield/rimfield/bem/laplace"
+	"github.com/rimfield/rimfield/bem/seep"
 	"github.com/rimfield/rimfield/geom"
 	"github.com/rimfield/rimfield/mesh"
 	"gonum.org/v1/gonum/spatial/r2"
 )
 
-// fakeJob is a solved job built by hand, with numbers chosen so that every
-// integrated result can be worked out on paper: a body "pin" (2 panels of
-// length 2, inflow density 0.25, potential 1) and an edge "bore" (4 panels
-// of length 2, inflow density -0.125, potential 0) in region "oil", plus an
-// insulated wall of region "paper" and an interface between the two.
-func fakeJob() *job {
+// fakeTask is a solved task built by hand, with numbers chosen so that
+// every integrated result can be worked out on paper: a body "pin" (2
+// panels of length 2, inflow density 0.25, potential 1) and an edge "bore"
+// (4 panels of length 2, inflow density -0.125, potential 0) in region
+// "oil", plus an insulated wall of region "paper" and an interface between
+// the two. Its outcome carries the electrostatic words, the common cautions
+// and one warning of its own, and no system.
+func fakeTask() *task {
 	pot := func(v float64) geom.Condition { return geom.Condition{Kind: geom.Potential, Value: v} }
 	lay := &geom.Layout{
 		Owners: []geom.Owner{
@@ -62,13 +68,14 @@ func fakeJob() *job {
 		Cond:  123.4,
 		Const: []float64{0, 0},
 	}
-	return &job{scenePath: "fake.geojson", scene: sc, mesh: m, sol: sol, solverKind: "dense", unknowns: 9, levels: 11}
+	out := &job.Outcome{Solution: sol, Solver: "dense", Cautions: job.CommonCautions(m), Warnings: []string{"a warning of the job"}}
+	return &task{scenePath: "fake.geojson", scene: sc, mesh: m, job: electro.NewJob(), words: electro.NewJob().Words(), out: out, levels: 11}
 }
 
-// solveFake writes the outputs of a job into a new directory and returns it.
-// A hand-built solution cannot be evaluated away from the boundary, so the
-// artifacts (contours, pictures) are left out.
-func solveFake(t *testing.T, j *job) string {
+// solveFake writes the outputs of a task into a new directory and returns
+// it. A hand-built solution cannot be evaluated away from the boundary, so
+// the artifacts (contours, pictures) are left out.
+func solveFake(t *testing.T, j *task) string {
 	t.Helper()
 	saved := artifacts
 	artifacts = nil
@@ -143,7 +150,7 @@ func str(t *testing.T, v any, path ...any) string {
 // exist with the right types, and the integrated values are the sums worked
 // out by hand in fakeJob.
 func TestResultsJSONContract(t *testing.T) {
-	dir := solveFake(t, fakeJob())
+	dir := solveFake(t, fakeTask())
 	r := readJSON(t, filepath.Join(dir, "results.json"))
 
 	if got := str(t, r, "physics"); got != "electrostatic" {
@@ -185,7 +192,8 @@ func TestResultsJSONContract(t *testing.T) {
 	if _, ok := r["potential_at_infinity"]; ok {
 		t.Errorf("a closed scene has potential_at_infinity %v", r["potential_at_infinity"])
 	}
-	if str(t, r, "solver", "kind") != "dense" || num(t, r, "solver", "unknowns") != 9 || num(t, r, "solver", "condition_estimate") != 123.4 {
+	// No system came with the hand-built outcome: no unknowns to count.
+	if str(t, r, "solver", "kind") != "dense" || num(t, r, "solver", "unknowns") != 0 || num(t, r, "solver", "condition_estimate") != 123.4 {
 		t.Errorf("solver = %v", r["solver"])
 	}
 	if str(t, r, "units", "potential") != "V" || str(t, r, "units", "inflow") != "C/m" || str(t, r, "units", "inflow_density") != "C/m^2" {
@@ -196,7 +204,7 @@ func TestResultsJSONContract(t *testing.T) {
 	}
 
 	warnings := strings.Join(stringList(t, get(t, r, "warnings")), "\n")
-	for _, w := range []string{`unknown property "colour"`, "capacitance matrix"} {
+	for _, w := range []string{`unknown property "colour"`, "a warning of the job"} {
 		if !strings.Contains(warnings, w) {
 			t.Errorf("warnings lack %q:\n%s", w, warnings)
 		}
@@ -206,7 +214,7 @@ func TestResultsJSONContract(t *testing.T) {
 		topics = append(topics, str(t, r, "cautions", i, "topic"))
 		str(t, r, "cautions", i, "text")
 	}
-	for _, want := range []string{"2d_idealisation", "truncated_domain", "breakdown"} {
+	for _, want := range []string{"2d_idealisation", "truncated_domain"} {
 		if !strings.Contains(strings.Join(topics, " "), want) {
 			t.Errorf("cautions %v lack %q", topics, want)
 		}
@@ -232,7 +240,7 @@ func stringList(t *testing.T, v any) []string {
 }
 
 func TestBoundaryCSV(t *testing.T) {
-	j := fakeJob()
+	j := fakeTask()
 	dir := solveFake(t, j)
 	f, err := os.Open(filepath.Join(dir, "boundary.csv"))
 	if err != nil {
@@ -258,7 +266,7 @@ func TestBoundaryCSV(t *testing.T) {
 		}
 		mid := p.Mid()
 		// Every number reads back as the same float64: full precision.
-		for k, want := range []float64{mid.X, mid.Y, p.S, p.Length(), j.sol.U[i], j.sol.F[i]} {
+		for k, want := range []float64{mid.X, mid.Y, p.S, p.Length(), j.sol().U[i], j.sol().F[i]} {
 			got, err := strconv.ParseFloat(row[1+k], 64)
 			if err != nil || got != want {
 				t.Errorf("row %d column %s = %q, want %v", i, rows[0][1+k], row[1+k], want)
@@ -270,11 +278,11 @@ func TestBoundaryCSV(t *testing.T) {
 // NaN and infinities never reach the files: null in JSON and an empty CSV
 // cell, each with a warning naming the key or column.
 func TestNonFiniteValues(t *testing.T) {
-	j := fakeJob()
-	j.sol.U[0] = math.NaN()
-	j.sol.Cond = math.Inf(1)
+	j := fakeTask()
+	j.sol().U[0] = math.NaN()
+	j.sol().Cond = math.Inf(1)
 	j.mesh.Layout.Open = true
-	j.sol.Const = nil // no potential at infinity came back
+	j.sol().Const = nil // no potential at infinity came back
 	dir := solveFake(t, j)
 	data, err := os.ReadFile(filepath.Join(dir, "results.json"))
 	if err != nil {
@@ -306,11 +314,11 @@ func TestNonFiniteValues(t *testing.T) {
 }
 
 func TestOpenScenePotentialAtInfinity(t *testing.T) {
-	j := fakeJob()
+	j := fakeTask()
 	lay := j.mesh.Layout
 	lay.Open = true
 	lay.Regions = append(lay.Regions, geom.Domain{Name: "background", Feature: -1, Background: true, Material: geom.Material{Kx: geom.Eps0, Ky: geom.Eps0}})
-	j.sol.Const = []float64{0, 0, 0.375}
+	j.sol().Const = []float64{0, 0, 0.375}
 	r := readJSON(t, filepath.Join(solveFake(t, j), "results.json"))
 	if v := num(t, r, "potential_at_infinity"); v != 0.375 {
 		t.Errorf("potential_at_infinity = %v, want 0.375", v)
@@ -321,9 +329,13 @@ func TestOpenScenePotentialAtInfinity(t *testing.T) {
 }
 
 func TestCheckSummary(t *testing.T) {
-	j := fakeJob()
+	j := fakeTask()
 	j.mesh.Singular = []r2.Vec{{X: 4, Y: 0}}
-	out := checkSummary("fake.geojson", j.scene, j.mesh)
+	c, err := j.job.Check(&job.Setup{Scene: j.scene, Mesh: j.mesh})
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := checkSummary("fake.geojson", j.scene, j.mesh, j.words, c)
 	for _, want := range []string{
 		"electrostatic", "mm", "closed", "1 body, 2 regions, 1 edge",
 		"pin", "body", "potential 1 V", "bore", "edge", "potential 0 V",
@@ -339,17 +351,32 @@ func TestCheckSummary(t *testing.T) {
 	}
 }
 
+// Each job spells conditions in its own words, with SI units.
 func TestDescribeCondition(t *testing.T) {
-	u := unitsOf(geom.Seepage)
-	cases := map[string]geom.Condition{
-		"potential 12.5 m":                 {Kind: geom.Potential, Value: 12.5},
-		"flux 1e-06 m/s":                   {Kind: geom.Flux, Value: 1e-6},
-		"insulated (flux 0)":               geom.Insulated,
-		"floating, net inflow 0.002 m^2/s": {Kind: geom.Floating, NetInflow: 0.002},
+	cases := []struct {
+		words *job.Words
+		want  map[string]geom.Condition
+	}{
+		{seep.NewJob().Words(), map[string]geom.Condition{
+			"total head 12.5 m":    {Kind: geom.Potential, Value: 12.5},
+			"inflow 1e-06 m/s":     {Kind: geom.Flux, Value: 1e-6},
+			"impervious (no flow)": geom.Insulated,
+		}},
+		{laplace.New().Words(), map[string]geom.Condition{
+			"potential 12.5 1":         {Kind: geom.Potential, Value: 12.5},
+			"insulated (flux 0)":       geom.Insulated,
+			"floating, net inflow 2 1": {Kind: geom.Floating, NetInflow: 2},
+		}},
+		{electro.NewJob().Words(), map[string]geom.Condition{
+			"potential 5 V":              {Kind: geom.Potential, Value: 5},
+			"floating, charge 2e-09 C/m": {Kind: geom.Floating, NetInflow: 2e-9},
+		}},
 	}
-	for want, c := range cases {
-		if got := describeCondition(c, u); got != want {
-			t.Errorf("got %q, want %q", got, want)
+	for _, c := range cases {
+		for want, cond := range c.want {
+			if got := c.words.Condition(cond); got != want {
+				t.Errorf("got %q, want %q", got, want)
+			}
 		}
 	}
 }
@@ -359,24 +386,43 @@ func TestDescribeCondition(t *testing.T) {
 // keys.
 func TestNonFiniteKeys(t *testing.T) {
 	nan := number(math.NaN())
-	r := &results{
-		Boundaries: []boundary{{Name: "a"}, {Name: "b", Inflow: number(math.Inf(-1))}},
-		Electrostatic: &electrostaticSection{
-			Capacitance:   &capacitance{Conductors: []string{"a"}, Matrix: [][]number{{1, nan}}},
-			electroExtras: &electroExtras{EnergyJPerM: nan},
-		},
+	type inner struct {
+		Matrix [][]number `json:"matrix"`
+	}
+	type section struct {
+		Capacitance *inner `json:"capacitance"`
+		Energy      number `json:"energy_J_per_m"`
+	}
+	type outer struct {
+		section
+		Extra number `json:"extra"`
+	}
+	head := resultsHead{
+		Boundaries:          []boundary{{Name: "a"}, {Name: "b", Inflow: number(math.Inf(-1))}},
 		PotentialAtInfinity: &nan,
 	}
-	got := strings.Join(nonFinite(reflect.ValueOf(r), ""), " ")
-	want := "boundaries[1].inflow potential_at_infinity electrostatic.capacitance.matrix[0][1] electrostatic.energy_J_per_m"
-	if got != want {
+	got := strings.Join(nonFinite(reflect.ValueOf(head), ""), " ")
+	if want := "boundaries[1].inflow potential_at_infinity"; got != want {
 		t.Errorf("got %q\nwant %q", got, want)
 	}
-	data, err := json.Marshal(r.Electrostatic)
+	sec := outer{section: section{Capacitance: &inner{Matrix: [][]number{{1, nan}}}, Energy: nan}, Extra: 1}
+	got = strings.Join(nonFinite(reflect.ValueOf(sec), "electrostatic"), " ")
+	if want := "electrostatic.capacitance.matrix[0][1] electrostatic.energy_J_per_m"; got != want {
+		t.Errorf("got %q\nwant %q", got, want)
+	}
+	r := &results{resultsHead: head, Section: &job.Section{Key: "electrostatic", Value: sec}}
+	data, err := r.marshal()
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !strings.Contains(string(data), `"energy_J_per_m":null`) || !strings.Contains(string(data), `"matrix":[[1,null]]`) {
-		t.Errorf("electrostatic section written as %s", data)
+	var back map[string]any
+	if err := json.Unmarshal(data, &back); err != nil {
+		t.Fatalf("%v:\n%s", err, data)
+	}
+	if e, ok := back["electrostatic"].(map[string]any); !ok || e["energy_J_per_m"] != nil || e["extra"] != 1.0 {
+		t.Errorf("electrostatic section written as %v", back["electrostatic"])
+	}
+	if !strings.Contains(string(data), `"inflow": null`) {
+		t.Errorf("results written as %s", data)
 	}
 }

@@ -1,54 +1,14 @@
 package main
 
 import (
-	"encoding/json"
 	"fmt"
 	"io"
 	"strings"
 	"text/tabwriter"
 
-	"github.com/rimfield/rimfield/bem"
-	"github.com/rimfield/rimfield/bem/grid"
-	"github.com/rimfield/rimfield/geom"
+	"github.com/rimfield/rimfield/bem/job"
 	"github.com/rimfield/rimfield/mesh"
 )
-
-// File names solve writes.
-const (
-	resultsName  = "results.json"
-	boundaryName = "boundary.csv"
-)
-
-// job is one solved scene with everything the writers of results need.
-type job struct {
-	scenePath  string
-	scene      *geom.Scene
-	mesh       *mesh.Mesh // mesh.Layout is the scene's layout
-	system     *bem.System
-	sol        *bem.Solution
-	solverKind string // "dense"
-	unknowns   int
-	levels     int // number of equipotentials for contours and pictures
-	// warnings collects what the writers of outputs noticed; they go into
-	// results.json.
-	warnings []string
-	grid     *grid.Grid // the solution on the default grid, once sampled
-	// airBreakdown assumes the breakdown field of air where the scene gives
-	// none (--air-breakdown).
-	airBreakdown bool
-	pics         *pictureJob // picture and report flags, results and pictures (images.go)
-}
-
-// artifact is an optional group of output files (contours, pictures),
-// registered by its own file in an init function.
-type artifact struct {
-	name  string // for messages: "contours", "pictures"
-	image bool   // skipped with --no-images
-	files func(j *job) ([]outputFile, error)
-}
-
-// artifacts lists the registered artifacts in the order they are written.
-var artifacts []artifact
 
 const solveAbout = `
 Solves the scene and writes into DIR (created if needed):
@@ -81,7 +41,6 @@ type solveOptions struct {
 	noImages bool
 	solver   string
 	quiet    bool
-	air      bool
 }
 
 func runSolve(args []string, stdout, stderr io.Writer) error {
@@ -94,8 +53,9 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 	fs.BoolVar(&o.noImages, "no-images", false, "do not draw the PNG pictures")
 	fs.StringVar(&o.solver, "solver", "auto", "linear `SOLVER`: dense (direct LU, exact to rounding), fast (not available yet), or auto (dense)")
 	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing on success (errors still go to stderr)")
-	fs.BoolVar(&o.air, "air-breakdown", false, "electrostatic: assume the breakdown field of air, 3 kV/mm = 3e6 V/m (dry air, standard conditions, gaps of centimetres; common practice), for every region of relative permittivity 1 without a breakdown_field, the background included")
 	pics := addPictureFlags(fs)
+	js := newJobs()
+	js.addFlags(fs)
 	if helped, err := cl.parse(args, stdout); helped || err != nil {
 		return err
 	}
@@ -123,26 +83,29 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 		return fmt.Errorf("solve: %w", err)
 	}
 
-	j := &job{scenePath: pos[0], solverKind: kind, levels: o.levels, pics: pics, airBreakdown: o.air}
-	j.scene, j.mesh, err = prepare(pos[0], o.panels)
+	t := &task{scenePath: pos[0], levels: o.levels, pics: pics}
+	var mo mesh.Options
+	t.scene, t.mesh, mo, err = prepare(pos[0], o.panels)
 	if err != nil {
 		return err
 	}
-	if err := unsupported(j.scene.Problem.Physics); err != nil {
-		return err
+	t.job, err = js.forScene(t.scene.Problem.Physics)
+	if err != nil {
+		return fmt.Errorf("solve: %w", err)
 	}
-	j.system, err = bem.Assemble(j.mesh, progressSettings(stderr, len(j.mesh.Panels), o.quiet))
-	endProgress(stderr, len(j.mesh.Panels), o.quiet)
+	t.words = t.job.Words()
+	n := len(t.mesh.Panels)
+	setup := &job.Setup{Scene: t.scene, Mesh: t.mesh, MeshOptions: mo, Settings: progressSettings(stderr, n, o.quiet)}
+	t.out, err = t.job.Solve(setup)
+	endProgress(stderr, n, o.quiet)
 	if err != nil {
 		return err
 	}
-	j.unknowns = j.system.Unknowns()
-	j.sol, err = j.system.Solve(nil)
-	if err != nil {
-		return err
+	if t.out.Solver == "" {
+		t.out.Solver = kind
 	}
 
-	res, files, err := resultFiles(j, !o.noImages)
+	res, files, err := resultFiles(t, !o.noImages)
 	if err != nil {
 		return err
 	}
@@ -150,7 +113,7 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 		return fmt.Errorf("solve: %w", err)
 	}
 	if !o.quiet {
-		printSolveSummary(stdout, stderr, j, res, o.out)
+		printSolveSummary(stdout, stderr, t, res, o.out)
 	}
 	return nil
 }
@@ -168,36 +131,36 @@ func solverKind(s string) (string, error) {
 
 // resultFiles builds every output file of a solved job, in memory, with
 // results.json last so that it can list them all.
-func resultFiles(j *job, images bool) (*results, []outputFile, error) {
-	table, err := newBoundaryTable(j)
+func resultFiles(t *task, images bool) (*results, []outputFile, error) {
+	table, err := newBoundaryTable(t)
 	if err != nil {
 		return nil, nil, err
 	}
-	res, err := buildResults(j)
+	res, err := buildResults(t)
 	if err != nil {
 		return nil, nil, err
 	}
 	res.Warnings = append(res.Warnings, table.warnings()...)
-	if j.pics != nil {
-		j.pics.res = res
+	if t.pics != nil {
+		t.pics.res = res
 	}
 	files := []outputFile{{boundaryName, table.write}}
 	for _, a := range artifacts {
 		if a.image && !images {
 			continue
 		}
-		more, err := a.files(j)
+		more, err := a.files(t)
 		if err != nil {
 			return nil, nil, fmt.Errorf("%s: %w", a.name, err)
 		}
 		files = append(files, more...)
 	}
-	res.Warnings = append(res.Warnings, j.warnings...)
+	res.Warnings = append(res.Warnings, t.warnings...)
 	res.Files = []string{resultsName}
 	for _, f := range files {
 		res.Files = append(res.Files, f.name)
 	}
-	data, err := json.MarshalIndent(res, "", "  ")
+	data, err := res.marshal()
 	if err != nil {
 		return nil, nil, fmt.Errorf("internal error: results.json: %w", err)
 	}
@@ -211,12 +174,12 @@ func resultFiles(j *job, images bool) (*results, []outputFile, error) {
 
 // printSolveSummary prints what was solved and written for a person, and
 // the warnings to stderr.
-func printSolveSummary(w, stderr io.Writer, j *job, r *results, dir string) {
+func printSolveSummary(w, stderr io.Writer, t *task, r *results, dir string) {
 	fmt.Fprintf(w, "solved %s: %s, %d panels, %d unknowns, %s solver (condition estimate %.3g)\n",
-		j.scenePath, r.Physics, r.Panels, r.Solver.Unknowns, r.Solver.Kind, float64(r.Solver.ConditionEstimate))
+		t.scenePath, r.Physics, r.Panels, r.Solver.Unknowns, r.Solver.Kind, float64(r.Solver.ConditionEstimate))
 	if len(r.Boundaries) > 0 {
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
-		fmt.Fprintf(tw, "  boundary\tpotential (%s)\tinflow (%s)\tlength (m)\n", r.Units.Potential, r.Units.Inflow)
+		fmt.Fprintf(tw, "  boundary\t%s (%s)\t%s (%s)\tlength (m)\n", t.words.Potential, r.Units.Potential, t.words.Inflow, r.Units.Inflow)
 		for _, b := range r.Boundaries {
 			fmt.Fprintf(tw, "  %s\t%.6g\t%.6g\t%.6g\n", b.Name, float64(b.Potential), float64(b.Inflow), float64(b.Length))
 		}

@@ -3,6 +3,7 @@ package main
 import (
 	"encoding/csv"
 	"encoding/json"
+	"errors"
 	"math"
 	"os"
 	"path/filepath"
@@ -243,5 +244,25 @@ func TestCheckCoaxialExample(t *testing.T) {
 		if !strings.Contains(out, want) {
 			t.Errorf("check output lacks %q:\n%s", want, out)
 		}
+	}
+}
+
+// A physics without a job in the table is refused by solve, with no files
+// written, and check prints its summary and says that solve would refuse
+// it, exiting non-zero.
+func TestPhysicsWithoutJob(t *testing.T) {
+	saved := jobs[geom.Seepage]
+	delete(jobs, geom.Seepage)
+	defer func() { jobs[geom.Seepage] = saved }()
+	out := filepath.Join(t.TempDir(), "out")
+	_, _, err := runArgs(t, "solve", pictureScene, "-o", out)
+	wantOneLine(t, err, "solve: seepage scenes cannot be solved by this version yet")
+	if _, err := os.Stat(out); !errors.Is(err, os.ErrNotExist) {
+		t.Errorf("solve wrote %s for a refused scene", out)
+	}
+	stdout, _, err := runArgs(t, "check", pictureScene)
+	wantOneLine(t, err, "check: the scene is valid, but solve would refuse it", "seepage scenes cannot be solved")
+	if !strings.Contains(stdout, "solve would refuse this scene") || !strings.Contains(stdout, "panels") {
+		t.Errorf("check summary:\n%s", stdout)
 	}
 }

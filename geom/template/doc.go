@@ -13,6 +13,9 @@
 //
 //	data, err := template.Coaxial{Inner: 1.2, Outer: 4, Permittivity: 2.1, Voltage: 1}.Bytes()
 //
+// Every template is registered as an Entry (Entries, Lookup) with its
+// parameters, so that a command line can offer each one as a flag.
+//
 // The package writes JSON with encoding/json: only package geom reads and
 // writes GeoJSON through a GeoJSON library.
 package template

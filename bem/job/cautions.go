@@ -1,4 +1,4 @@
-package main
+package job
 
 import (
 	"fmt"
@@ -11,11 +11,13 @@ import (
 // maxWhere is the number of locations listed with one caution.
 const maxWhere = 10
 
-// cautionsFor returns the limits of the model that apply to a meshed scene;
+// CommonCautions returns the limits of the model that follow from a meshed
+// scene whatever its physics: the 2D idealisation, singular corners,
+// insulated walls that may truncate a larger domain, anisotropy.
 // CAUTIONS.md explains each topic at length.
-func cautionsFor(sc *geom.Scene, m *mesh.Mesh) []caution {
+func CommonCautions(m *mesh.Mesh) []Caution {
 	lay := m.Layout
-	out := []caution{{
+	out := []Caution{{
 		Topic: "2d_idealisation",
 		Text:  "the cross-section is taken as infinitely long: results are per metre of length, and ends and 3D effects are ignored",
 	}}
@@ -27,29 +29,12 @@ func cautionsFor(sc *geom.Scene, m *mesh.Mesh) []caution {
 	}
 	for _, d := range lay.Regions {
 		if !d.Material.Isotropic() {
-			out = append(out, caution{
+			out = append(out, Caution{
 				Topic: "anisotropy",
 				Text:  "a region is anisotropic with principal axes along x and y; check that the soil or material really is, and how well kx and ky are known",
 			})
 			break
 		}
-	}
-	switch sc.Problem.Physics {
-	case geom.Electrostatic:
-		out = append(out, caution{
-			Topic: "breakdown",
-			Text:  "whether a field strength is safe depends on gap, pressure, humidity and surface state, not on the field alone; use the clearances of the applicable electrical safety standards",
-		})
-	case geom.Seepage:
-		out = append(out,
-			caution{
-				Topic: "exit_gradient",
-				Text:  "the exit gradient at the toe of a structure is infinite in theory and its computed value depends on the mesh; piping and heave checks need the safety factors of the applicable codes",
-			},
-			caution{
-				Topic: "steady_state",
-				Text:  "seepage is steady and confined: no transient, no free surface, no change of permeability with time; hydraulic conductivity is rarely known within a factor of ten",
-			})
 	}
 	return out
 }
@@ -61,9 +46,9 @@ func cautionsFor(sc *geom.Scene, m *mesh.Mesh) []caution {
 // fixed potential meets a fixed flux like r^(pi/(2 beta) - 1): the local
 // separable solutions of Laplace's equation in a wedge (any potential-theory
 // text; e.g. Jackson, Classical Electrodynamics, sec. 2.11).
-func singularCorners(m *mesh.Mesh) (caution, bool) {
+func singularCorners(m *mesh.Mesh) (Caution, bool) {
 	if len(m.Singular) == 0 {
-		return caution{}, false
+		return Caution{}, false
 	}
 	// The boundary at each vertex: the first body or edge ending there, else
 	// the first wall or interface.
@@ -73,35 +58,35 @@ func singularCorners(m *mesh.Mesh) (caution, bool) {
 	}
 	names := map[r2.Vec]naming{}
 	for _, p := range m.Panels {
-		n := naming{panelBoundaryName(m.Layout, p), p.Owner >= 0 && !p.Interface()}
+		n := naming{BoundaryName(m.Layout, p), p.Owner >= 0 && !p.Interface()}
 		for _, v := range [2]r2.Vec{p.A, p.B} {
 			if cur, ok := names[v]; !ok || (n.owned && !cur.owned) {
 				names[v] = n
 			}
 		}
 	}
-	var where []location
+	var where []Location
 	for _, v := range m.Singular {
 		if len(where) == maxWhere {
 			break
 		}
-		where = append(where, location{X: number(v.X), Y: number(v.Y), Boundary: names[v].name})
+		where = append(where, Location{X: Number(v.X), Y: Number(v.Y), Boundary: names[v].name})
 	}
 	text := fmt.Sprintf("%d corner(s), tip(s) or change(s) of condition where the field is infinite in theory: values on the panels next to them depend on the mesh; round sharp corners (or read values a little away from them) and re-run with more panels to see how much they move", len(m.Singular))
 	if len(m.Singular) > len(where) {
 		text += fmt.Sprintf(" (the first %d are listed)", len(where))
 	}
-	return caution{Topic: "singular_corners", Text: text, Where: where}, true
+	return Caution{Topic: "singular_corners", Text: text, Where: where}, true
 }
 
 // truncatedDomain reports insulated walls of a closed scene: the outer
 // boundary of a region that no edge covers. They are exact for impervious
 // boundaries and symmetry lines, but a finite box cut out of a larger domain
 // changes the answer.
-func truncatedDomain(m *mesh.Mesh) (caution, bool) {
+func truncatedDomain(m *mesh.Mesh) (Caution, bool) {
 	lay := m.Layout
 	if lay.Open {
-		return caution{}, false
+		return Caution{}, false
 	}
 	total := 0.0
 	regions := map[string]bool{}
@@ -119,11 +104,31 @@ func truncatedDomain(m *mesh.Mesh) (caution, bool) {
 		}
 	}
 	if total == 0 {
-		return caution{}, false
+		return Caution{}, false
 	}
-	return caution{
+	return Caution{
 		Topic: "truncated_domain",
 		Text: fmt.Sprintf("%.4g m of insulated (zero-flux) wall bounds the domain (regions %q): exact for impervious boundaries and symmetry lines, but if a wall only cuts a larger domain short, the results depend on where it is; move it farther out and re-run to see how much",
 			total, names),
 	}, true
+}
+
+// BoundaryName names the boundary a panel belongs to: its body or edge,
+// "interface:<left>|<right>" between two regions (inflow is then into the
+// left one), or "wall:<region>" for a region's insulated outer boundary
+// that no edge covers.
+func BoundaryName(lay *geom.Layout, p mesh.Panel) string {
+	region := func(i int) string {
+		if i >= 0 && i < len(lay.Regions) {
+			return lay.Regions[i].Name
+		}
+		return fmt.Sprintf("region%d", i)
+	}
+	switch {
+	case p.Owner >= 0 && p.Owner < len(lay.Owners) && !p.Interface():
+		return lay.Owners[p.Owner].Name
+	case p.Interface():
+		return "interface:" + region(p.Left) + "|" + region(p.Right)
+	}
+	return "wall:" + region(p.Left)
 }
