@@ -47,6 +47,9 @@ func (a *arrangement) layout() (*Layout, error) {
 	if err := a.checkBodies(); err != nil {
 		return nil, err
 	}
+	if err := a.checkEdges(); err != nil {
+		return nil, err
+	}
 	nb := len(s.Bodies)
 	var pieces []rawPiece
 	edgeOn := make([]bool, len(s.Edges))  // some part of the edge bounds the domain
@@ -257,6 +260,100 @@ func (a *arrangement) checkBodies() error {
 		}
 	}
 	return nil
+}
+
+// checkEdges rejects conductors touching an edge that holds them at
+// another potential: a body at a fixed potential that an edge at another
+// potential runs along, crosses or touches at one vertex, and a floating
+// body or edge in contact with a fixed or floating conductor. An edge
+// overriding part of an insulated body, or a conductor at the edge's own
+// potential, is harmless.
+func (a *arrangement) checkEdges() error {
+	s := a.sc
+	if len(s.Edges) == 0 {
+		return nil
+	}
+	type pair struct{ body, edge int }
+	var bodies, edges []int
+	first := map[pair]r2.Vec{} // the first point where each pair meets
+	var order []pair
+	meet := func(p r2.Vec) {
+		for _, b := range bodies {
+			for _, e := range edges {
+				k := pair{b, e}
+				if _, ok := first[k]; !ok {
+					first[k] = p
+					order = append(order, k)
+				}
+			}
+		}
+	}
+	vertexBodies := make(map[int32][]int)
+	vertexEdges := make(map[int32][]int)
+	for i := range a.subs {
+		sg := &a.subs[i]
+		bodies, edges = bodies[:0], edges[:0]
+		for _, c := range sg.contribs {
+			src := a.sources[c.src]
+			switch src.kind {
+			case srcBody:
+				bodies = appendSet(bodies, src.feat)
+				vertexBodies[sg.lo] = appendSet(vertexBodies[sg.lo], src.feat)
+				vertexBodies[sg.hi] = appendSet(vertexBodies[sg.hi], src.feat)
+			case srcEdge:
+				edges = appendSet(edges, src.feat)
+				vertexEdges[sg.lo] = appendSet(vertexEdges[sg.lo], src.feat)
+				vertexEdges[sg.hi] = appendSet(vertexEdges[sg.hi], src.feat)
+			}
+		}
+		if len(edges) == 0 {
+			continue
+		}
+		// An edge inside a body crosses it.
+		for _, sd := range sg.sides {
+			for _, b := range sd.bodies {
+				bodies = appendSet(bodies, b)
+			}
+		}
+		meet(a.mid(sg))
+	}
+	vs := make([]int32, 0, len(vertexEdges))
+	for v := range vertexEdges {
+		if len(vertexBodies[v]) > 0 {
+			vs = append(vs, v)
+		}
+	}
+	slices.Sort(vs)
+	for _, v := range vs {
+		bodies, edges = vertexBodies[v], vertexEdges[v]
+		meet(a.pos[v])
+	}
+	for _, k := range order {
+		if msg := a.edgeContact(k.body, k.edge, first[k]); msg != "" {
+			return s.featErr(srcBody, k.body, msg)
+		}
+	}
+	return nil
+}
+
+// edgeContact is the message for body b in contact with edge e at p, or ""
+// when their contact is harmless.
+func (a *arrangement) edgeContact(b, e int, p r2.Vec) string {
+	s := a.sc
+	cb, ce := s.Bodies[b].Cond, s.Edges[e].Cond
+	edge := s.featRef(srcEdge, e)
+	u := s.potUnit()
+	switch {
+	case cb.Kind == Potential && ce.Kind == Potential && cb.Value != ce.Value:
+		return fmt.Sprintf("is held at %s%s and touches or crosses %s, held at %s%s, near %s: a short circuit; separate them (shorten the edge or move the body) or give them the same potential", fmtNum(cb.Value), u, edge, fmtNum(ce.Value), u, a.where(p))
+	case cb.Kind == Floating && ce.Kind == Potential:
+		return fmt.Sprintf("is floating and touches or crosses %s, held at %s%s, near %s; a conductor touching a fixed potential is at that potential: give this body the potential %s%s instead of floating, or separate them", edge, fmtNum(ce.Value), u, a.where(p), fmtNum(ce.Value), u)
+	case cb.Kind == Potential && ce.Kind == Floating:
+		return fmt.Sprintf("is held at %s%s and touches or crosses %s, which is floating, near %s; a conductor touching a fixed potential is at that potential: give the edge the potential %s%s instead of floating, or separate them", fmtNum(cb.Value), u, edge, a.where(p), fmtNum(cb.Value), u)
+	case cb.Kind == Floating && ce.Kind == Floating:
+		return fmt.Sprintf("is floating and touches or crosses %s, also floating, near %s: touching conductors are one conductor; give them one condition or separate them", edge, a.where(p))
+	}
+	return ""
 }
 
 // contact is the message for bodies i and j in contact at p, or "" when

@@ -560,7 +560,7 @@ func TestLayoutEdges(t *testing.T) {
 	// Partly on the boundary, partly under a body, partly outside the
 	// region: only the 6..8 stretch remains.
 	sc := newScene(Line{{X: 6}, {X: 11}})
-	sc.Bodies = []Body{body(2, "block", pot(0), Polygon{rect(8, -1, 12, 1)})}
+	sc.Bodies = []Body{body(2, "block", Insulated, Polygon{rect(8, -1, 12, 1)})}
 	l = mustLayout(t, sc)
 	if got := lengthWhere(l, func(p Piece) bool { return p.Owner == 1 }); !near(got, 2, tolExact) {
 		t.Errorf("edge under a body: edge length %.15g, want 2", got)
@@ -571,12 +571,12 @@ func TestLayoutEdges(t *testing.T) {
 
 	// An edge along part of a body's face overrides the body there.
 	sc = newScene(Line{{X: 4.5, Y: 3}, {X: 6, Y: 3}})
-	sc.Bodies = []Body{body(2, "drain", pot(0), Polygon{rect(4, 2, 6, 3)})}
+	sc.Bodies = []Body{body(2, "drain", Insulated, Polygon{rect(4, 2, 6, 3)})}
 	l = mustLayout(t, sc)
 	if got := lengthWhere(l, func(p Piece) bool { return p.Owner == 1 && p.Cond == pot(3) }); !near(got, 1.5, tolExact) {
 		t.Errorf("edge on a body: edge length %.15g, want 1.5", got)
 	}
-	if got := lengthWhere(l, func(p Piece) bool { return p.Owner == 0 && p.Cond == pot(0) }); !near(got, 6-1.5, tolExact) {
+	if got := lengthWhere(l, func(p Piece) bool { return p.Owner == 0 && p.Cond == Insulated }); !near(got, 6-1.5, tolExact) {
 		t.Errorf("edge on a body: body length %.15g, want 4.5", got)
 	}
 
@@ -632,6 +632,59 @@ func TestLayoutShortCircuit(t *testing.T) {
 		}
 		if got := boundaryArea(l); !near(got, -1.3, tolExact) {
 			t.Errorf("%v: area %.15g, want -1.3", c1, got)
+		}
+	}
+}
+
+// A conductor that an edge at another potential runs along, crosses or
+// touches at one vertex is a short circuit: the inflow through the point
+// where two fixed potentials meet grows like the logarithm of the panel
+// size and has no limit (a jump of potential along a boundary; common
+// practice). One error names both features and the point. A conductor at
+// the edge's own potential, or an edge over an insulated body, is fine.
+func TestLayoutEdgeShortCircuit(t *testing.T) {
+	floating := Condition{Kind: Floating}
+	newScene := func(bc, ec Condition, b Ring, e Line) *Scene {
+		return &Scene{
+			Problem: Problem{Physics: Electrostatic, Unit: "mm", Scale: 1e-3},
+			Regions: []Region{region(0, "air", Polygon{rect(0, 0, 10, 5)})},
+			Bodies:  []Body{body(1, "strip", bc, Polygon{b})},
+			Edges:   []Edge{{Feature: 2, Name: "case", Lines: []Line{e}, Cond: ec}},
+		}
+	}
+	bottom := Line{{X: 0, Y: 0}, {X: 10, Y: 0}}
+	for _, tc := range []struct {
+		name   string
+		sc     *Scene
+		substr string
+	}{
+		{"along a side", newScene(pot(100), pot(0), rect(3, 0, 6, 1), bottom), "short circuit"},
+		{"through it", newScene(pot(100), pot(0), rect(3, -1, 6, 1), bottom), "short circuit"},
+		{"at one vertex", newScene(pot(100), pot(0), Ring{{X: 4, Y: 0}, {X: 6, Y: 1}, {X: 3, Y: 1}}, bottom), "short circuit"},
+		{"edge ends on it", newScene(pot(100), pot(0), rect(3, 2, 6, 3), Line{{X: 0, Y: 5}, {X: 0, Y: 2.5}, {X: 3, Y: 2.5}}), "short circuit"},
+		{"floating body", newScene(floating, pot(0), rect(3, 0, 6, 1), bottom), "floating"},
+		{"floating edge", newScene(pot(1), floating, rect(3, 0, 6, 1), bottom), "floating"},
+	} {
+		err := layoutErr(tc.sc)
+		if err == nil {
+			t.Errorf("%s: accepted", tc.name)
+			continue
+		}
+		ge := geomError(t, err)
+		if ge.Feature != 1 || ge.Name != "strip" || !strings.Contains(ge.Msg, `edge 2 ("case")`) || !strings.Contains(ge.Msg, tc.substr) || !strings.Contains(ge.Msg, "mm") {
+			t.Errorf("%s: %v", tc.name, ge)
+		}
+	}
+	for _, tc := range []struct {
+		name string
+		sc   *Scene
+	}{
+		{"same potential", newScene(pot(0), pot(0), rect(3, 0, 6, 1), bottom)},
+		{"insulated body", newScene(Insulated, pot(0), rect(3, 0, 6, 1), bottom)},
+		{"apart", newScene(pot(100), pot(0), rect(3, 1, 6, 2), bottom)},
+	} {
+		if err := layoutErr(tc.sc); err != nil {
+			t.Errorf("%s: %v", tc.name, err)
 		}
 	}
 }
