@@ -66,8 +66,9 @@ const (
 // source is one ring of a body or region polygon, or one edge line.
 type source struct {
 	kind srcKind
-	feat int // index into Scene.Bodies, Scene.Regions or Scene.Edges
-	poly int // index into arrangement.polys; -1 for an edge line
+	feat int  // index into Scene.Bodies, Scene.Regions or Scene.Edges
+	poly int  // index into arrangement.polys; -1 for an edge line
+	hole bool // a hole of its polygon (a ring after the first)
 }
 
 // polyRef is one polygon of a body or region.
@@ -208,8 +209,8 @@ func (s *Scene) arrange() (*arrangement, error) {
 		for _, pg := range pgs {
 			g := len(a.polys)
 			a.polys = append(a.polys, polyRef{kind, i})
-			for _, r := range pg {
-				a.sources = append(a.sources, source{kind, i, g})
+			for k, r := range pg {
+				a.sources = append(a.sources, source{kind, i, g, k > 0})
 				addRing(int32(len(a.sources)-1), r, true)
 			}
 		}
@@ -222,7 +223,7 @@ func (s *Scene) arrange() (*arrangement, error) {
 	}
 	for i, e := range s.Edges {
 		for _, l := range e.Lines {
-			a.sources = append(a.sources, source{srcEdge, i, -1})
+			a.sources = append(a.sources, source{srcEdge, i, -1, false})
 			addRing(int32(len(a.sources)-1), l, false)
 		}
 	}

@@ -149,6 +149,7 @@ func (a *arrangement) layout() (*Layout, error) {
 		Open:     s.Problem.Open,
 		Ground:   s.Problem.Ground,
 		Diagonal: a.diag,
+		Warnings: a.emptyHoles(),
 	}
 	for i, b := range s.Bodies {
 		lay.Owners = append(lay.Owners, Owner{Name: b.Name, Part: PartBody, Feature: b.Feature, Index: i, Cond: b.Cond})
@@ -163,6 +164,41 @@ func (a *arrangement) layout() (*Layout, error) {
 		lay.Regions = append(lay.Regions, Domain{Name: "background", Feature: -1, Background: true, Material: s.Problem.Background})
 	}
 	return lay, nil
+}
+
+// emptyHoles warns of the holes of regions in a closed scene that no
+// region or body fills: they are outside the domain, so their rims are
+// insulated walls, which a user who drew a hole for another material may
+// not mean. One warning per region, at the first such rim found.
+func (a *arrangement) emptyHoles() []string {
+	s := a.sc
+	if s.Problem.Open {
+		return nil
+	}
+	seen := make([]bool, len(s.Regions))
+	var out []string
+	for i := range a.subs {
+		sg := &a.subs[i]
+		for _, c := range sg.contribs {
+			src := a.sources[c.src]
+			if src.kind != srcRegion || !src.hole || seen[src.feat] {
+				continue
+			}
+			// The polygon's material is on the left of its rings: the hole
+			// lies on the right of the ring's direction.
+			in := sg.sides[1]
+			if c.dir < 0 {
+				in = sg.sides[0]
+			}
+			if len(in.regions) > 0 || len(in.bodies) > 0 {
+				continue
+			}
+			seen[src.feat] = true
+			out = append(out, fmt.Sprintf("%s has a hole near %s that no region or body fills: the hole is outside the domain and its rim an insulated (zero-flux) wall; to fill it with another material, draw a region over the hole (its outline the hole's ring), or drop the hole from the polygon",
+				s.featRef(srcRegion, src.feat), a.where(a.mid(sg))))
+		}
+	}
+	return out
 }
 
 // appendSet appends v to an unsorted small set unless it is there.

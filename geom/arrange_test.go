@@ -689,6 +689,35 @@ func TestLayoutEdgeShortCircuit(t *testing.T) {
 	}
 }
 
+// A region's hole that nothing fills is outside a closed scene's domain: a
+// warning says so and how to fill it; a hole filled by a region or a body,
+// or any hole in an open scene (the background fills it), gives none.
+func TestLayoutEmptyHoleWarning(t *testing.T) {
+	newScene := func(open bool) *Scene {
+		return &Scene{
+			Problem: Problem{Physics: Seepage, Open: open, Background: Material{Kx: 1, Ky: 1}},
+			Regions: []Region{region(0, "sand", Polygon{rect(0, 0, 10, 5), reversed(rect(4, 1, 6, 3))})},
+		}
+	}
+	l := mustLayout(t, newScene(false))
+	if len(l.Warnings) != 1 || !strings.Contains(l.Warnings[0], `region 0 ("sand") has a hole`) || !strings.Contains(l.Warnings[0], "zero-flux") {
+		t.Errorf("empty hole: warnings %q", l.Warnings)
+	}
+	if l := mustLayout(t, newScene(true)); len(l.Warnings) != 0 {
+		t.Errorf("open scene: warnings %q", l.Warnings)
+	}
+	sc := newScene(false)
+	sc.Regions = append(sc.Regions, region(1, "clay", Polygon{rect(4, 1, 6, 3)}))
+	if l := mustLayout(t, sc); len(l.Warnings) != 0 {
+		t.Errorf("hole filled by a region: warnings %q", l.Warnings)
+	}
+	sc = newScene(false)
+	sc.Bodies = []Body{body(1, "culvert", Insulated, Polygon{rect(3.5, 0.5, 6.5, 3.5)})}
+	if l := mustLayout(t, sc); len(l.Warnings) != 0 {
+		t.Errorf("hole under a body: warnings %q", l.Warnings)
+	}
+}
+
 func TestLayoutOverlappingRegions(t *testing.T) {
 	sc := &Scene{
 		Problem: Problem{Physics: Seepage},

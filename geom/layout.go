@@ -82,4 +82,7 @@ type Layout struct {
 	Ground  *Ground
 	// Diagonal is the length of the scene's bounding-box diagonal in metres.
 	Diagonal float64
+	// Warnings are what the arrangement noticed that is allowed but may not
+	// be meant (a region's hole that nothing fills), one sentence each.
+	Warnings []string
 }

@@ -124,11 +124,12 @@ func checkSummary(path string, sc *geom.Scene, m *mesh.Mesh, w *job.Words, c *jo
 	}
 
 	b.WriteString("\nwarnings")
-	if len(sc.Warnings) == 0 {
+	warnings := append(append([]string(nil), sc.Warnings...), lay.Warnings...)
+	if len(warnings) == 0 {
 		b.WriteString(" none\n")
 	} else {
 		b.WriteString("\n")
-		for _, w := range sc.Warnings {
+		for _, w := range warnings {
 			fmt.Fprintf(&b, "  - %s\n", w)
 		}
 	}

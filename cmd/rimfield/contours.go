@@ -3,7 +3,10 @@ package main
 import (
 	"bytes"
 	"fmt"
+	"strconv"
+	"strings"
 
+	"github.com/rimfield/rimfield/bem/draw"
 	"github.com/rimfield/rimfield/bem/grid"
 	"github.com/rimfield/rimfield/geom"
 )
@@ -23,6 +26,19 @@ func contourFiles(t *task) ([]outputFile, error) {
 	lo, hi := grid.BoundaryRange(t.sol())
 	levels := t.contourLevels(lo, hi)
 	var lines []geom.LevelLine
+	if t.pics != nil && t.pics.at != nil {
+		var out []string
+		for _, v := range t.pics.at {
+			if v < lo || v > hi {
+				out = append(out, strconv.FormatFloat(v, 'g', -1, 64))
+			}
+		}
+		if len(out) > 0 {
+			u := t.words.Units.Potential
+			t.warnings = append(t.warnings, fmt.Sprintf("--at %s: outside the range of the boundary's %s (%s to %s), where no equipotential lies; give levels between them",
+				strings.Join(out, ","), t.words.Potential, draw.FormatSI(lo, u), draw.FormatSI(hi, u)))
+		}
+	}
 	if levels == nil {
 		t.warnings = append(t.warnings, fmt.Sprintf("%s holds no lines: the boundary potential does not vary (from %g to %g)", contoursName, lo, hi))
 	} else {

@@ -175,6 +175,18 @@ func TestContourLevelsAt(t *testing.T) {
 	if len(seen) != 3 {
 		t.Errorf("levels %v, want exactly 1.5, 3, 4.5", seen)
 	}
+	if w := strings.Join(stringList(t, get(t, readJSON(t, filepath.Join(dir, resultsName)), "warnings")), "\n"); strings.Contains(w, "--at") {
+		t.Errorf("levels inside the heads 0 to 6 m warned of: %s", w)
+	}
+	// The weir's heads run from 0 to 6 m: 7.5 and -1 lie outside, and say so.
+	_, _, err = runArgs(t, "solve", pictureScene, "-o", dir, "--panels", "200", "--at", "-1,3,7.5", "--no-images", "-q")
+	if err != nil {
+		t.Fatal(err)
+	}
+	w := strings.Join(stringList(t, get(t, readJSON(t, filepath.Join(dir, resultsName)), "warnings")), "\n")
+	if !strings.Contains(w, "--at -1,7.5: outside the range of the boundary's total head (0 m to 6 m)") {
+		t.Errorf("warnings lack the levels outside the range:\n%s", w)
+	}
 }
 
 // --window limits contours.geojson to the area given, in the scene's unit.

@@ -54,6 +54,7 @@ func buildResults(t *task) (*results, error) {
 	}
 
 	r.Warnings = append(r.Warnings, sc.Warnings...)
+	r.Warnings = append(r.Warnings, lay.Warnings...)
 	r.Warnings = append(r.Warnings, sol.Warnings...)
 	r.Warnings = append(r.Warnings, out.Warnings...)
 	r.Cautions = out.Cautions

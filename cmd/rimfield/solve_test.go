@@ -266,3 +266,29 @@ func TestPhysicsWithoutJob(t *testing.T) {
 		t.Errorf("check summary:\n%s", stdout)
 	}
 }
+
+// A region's hole that nothing fills is reported by check and in
+// results.json's warnings.
+func TestEmptyHoleWarning(t *testing.T) {
+	scene := filepath.Join(t.TempDir(), "holed.geojson")
+	err := os.WriteFile(scene, []byte(`{"type": "FeatureCollection", "problem": {"physics": "laplace"},
+ "features": [
+  {"type": "Feature", "properties": {"part": "region", "name": "plate"}, "geometry": {"type": "Polygon", "coordinates": [[[0, 0], [10, 0], [10, 5], [0, 5], [0, 0]], [[4, 1], [4, 3], [6, 3], [6, 1], [4, 1]]]}},
+  {"type": "Feature", "properties": {"part": "edge", "name": "left", "potential": 1}, "geometry": {"type": "LineString", "coordinates": [[0, 5], [0, 0]]}},
+  {"type": "Feature", "properties": {"part": "edge", "name": "right", "potential": 0}, "geometry": {"type": "LineString", "coordinates": [[10, 0], [10, 5]]}}
+ ]}`), 0o666)
+	if err != nil {
+		t.Fatal(err)
+	}
+	out, _, err := runArgs(t, "check", scene)
+	if err != nil || !strings.Contains(out, `region 0 ("plate") has a hole`) {
+		t.Errorf("check: %v\n%s", err, out)
+	}
+	dir := filepath.Join(t.TempDir(), "out")
+	if _, _, err := runArgs(t, "solve", scene, "-o", dir, "--no-images", "-q"); err != nil {
+		t.Fatal(err)
+	}
+	if w := strings.Join(stringList(t, get(t, readJSON(t, filepath.Join(dir, resultsName)), "warnings")), "\n"); !strings.Contains(w, "has a hole") {
+		t.Errorf("results.json warnings lack the hole:\n%s", w)
+	}
+}
