@@ -2,6 +2,7 @@ package geom
 
 import (
 	"fmt"
+	"math"
 	"slices"
 
 	"gonum.org/v1/gonum/spatial/r2"
@@ -25,6 +26,25 @@ func (a *arrangement) mid(sg *subSeg) r2.Vec {
 // domain reports whether a side is part of the domain.
 func (a *arrangement) domain(sd side) bool {
 	return len(sd.bodies) == 0 && (a.sc.Problem.Open || len(sd.regions) > 0)
+}
+
+// onGround reports whether a sub-segment lies on the grounded plane of an
+// open scene, and which of its sides (0: left of lo->hi, 1: right) is below
+// the plane.
+func (a *arrangement) onGround(sg *subSeg) (below int, ok bool) {
+	g := a.sc.Problem.Ground
+	if g == nil || !a.sc.Problem.Open {
+		return 0, false
+	}
+	lo, hi := a.pos[sg.lo], a.pos[sg.hi]
+	if math.Abs(lo.Y-g.Y) > a.tol || math.Abs(hi.Y-g.Y) > a.tol {
+		return 0, false
+	}
+	// Walking lo->hi eastwards, the left side is above.
+	if hi.X > lo.X {
+		return 1, true
+	}
+	return 0, true
 }
 
 // regionOf is the Layout.Regions index of a domain side.
@@ -73,6 +93,17 @@ func (a *arrangement) layout() (*Layout, error) {
 			return nil, s.featErr(srcEdge, edges[0], fmt.Sprintf("overlaps %s near %s; a stretch of boundary takes one condition: shorten one of the two edges", s.featRef(srcEdge, edges[1]), a.where(a.mid(sg))))
 		}
 		dl, dr := a.domain(sg.sides[0]), a.domain(sg.sides[1])
+		ground := false
+		if below, ok := a.onGround(sg); ok {
+			// Below the grounded plane is not domain; a region resting on
+			// the plane is bounded there by the plane itself, at 0.
+			if below == 0 {
+				dl = false
+			} else {
+				dr = false
+			}
+			ground = dl || dr
+		}
 		anyDomain = anyDomain || dl || dr
 		switch {
 		case !dl && !dr:
@@ -102,6 +133,8 @@ func (a *arrangement) layout() (*Layout, error) {
 		}
 		p := Piece{A: A, B: B, Left: a.regionOf(dom), Right: Outside, Owner: -1, Cond: Insulated}
 		switch {
+		case ground:
+			p.Cond = Condition{Kind: Potential}
 		case len(edges) > 0:
 			p.Owner = nb + edges[0]
 			p.Cond = s.Edges[edges[0]].Cond

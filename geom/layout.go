@@ -21,7 +21,8 @@ type Piece struct {
 	Left, Right int // indices into Layout.Regions, or Outside
 	// Owner is the index into Layout.Owners of the body or edge whose
 	// condition the piece carries, or -1 (a region's insulated outer wall,
-	// or an interface).
+	// the grounded plane under a region resting on it (Cond a potential of
+	// 0), or an interface).
 	Owner int
 	Cond  Condition // the condition in force on a boundary piece
 }

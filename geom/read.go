@@ -1681,7 +1681,16 @@ func (rd *sceneReader) finish() error {
 					low = math.Min(low, v.Y)
 				}
 			}
-			if low-p.Ground.Y <= rd.tol {
+			// In electrostatics a region (a substrate) and a body (a
+			// conductor at 0 V, checked with the layout) may rest on the
+			// grounded plane; nothing may reach below it, and an edge or a
+			// flow body must stay strictly above.
+			rests := p.Physics == Electrostatic && rf.part != PartEdge
+			switch {
+			case rests && low-p.Ground.Y < -rd.tol:
+				return rd.errf(rf.index, rf.name, "coordinates", "reaches down to y = %s, below the grounded plane y = %s of problem.ground; the scene lies above the plane: move the plane down or the feature up",
+					rd.unitFmt(low), rd.unitFmt(p.Ground.Y))
+			case !rests && low-p.Ground.Y <= rd.tol:
 				return rd.errf(rf.index, rf.name, "coordinates", "reaches down to y = %s, not strictly above the grounded plane y = %s of problem.ground; move the plane down or the feature up",
 					rd.unitFmt(low), rd.unitFmt(p.Ground.Y))
 			}

@@ -321,7 +321,7 @@ var readBadCases = []struct {
 	{"geometry_extra_member", 2, "", "cannot be read as a GeoJSON Feature"},
 	{"geometry_type_typo", 0, "geometry", `did you mean "Polygon"?`},
 	{"ground_closed", -1, "problem.ground", `"open": true`},
-	{"ground_touched", 1, "coordinates", "strictly above the grounded plane"},
+	{"ground_touched", 1, "geometry", "touches the grounded plane y = 0 m at (3, 0) m but is held at 1 V: a short circuit"},
 	{"ground_in_seepage", -1, "problem.ground", "electrostatic and flow"},
 	{"hole_crossing", 3, "coordinates", "crosses or touches the outer ring"},
 	{"hole_outside", 3, "coordinates", "lies outside its outer ring"},

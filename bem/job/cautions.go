@@ -115,8 +115,9 @@ func truncatedDomain(m *mesh.Mesh) (Caution, bool) {
 
 // BoundaryName names the boundary a panel belongs to: its body or edge,
 // "interface:<left>|<right>" between two regions (inflow is then into the
-// left one), or "wall:<region>" for a region's insulated outer boundary
-// that no edge covers.
+// left one), "ground" under a region resting on the grounded plane, or
+// "wall:<region>" for a region's insulated outer boundary that no edge
+// covers.
 func BoundaryName(lay *geom.Layout, p mesh.Panel) string {
 	region := func(i int) string {
 		if i >= 0 && i < len(lay.Regions) {
@@ -129,6 +130,8 @@ func BoundaryName(lay *geom.Layout, p mesh.Panel) string {
 		return lay.Owners[p.Owner].Name
 	case p.Interface():
 		return "interface:" + region(p.Left) + "|" + region(p.Right)
+	case p.Owner < 0 && p.Cond.Kind == geom.Potential:
+		return "ground"
 	}
 	return "wall:" + region(p.Left)
 }

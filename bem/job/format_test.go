@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"github.com/rimfield/rimfield/geom"
+	"github.com/rimfield/rimfield/mesh"
 	"gonum.org/v1/gonum/spatial/r2"
 )
 
@@ -34,5 +35,26 @@ func TestWhere(t *testing.T) {
 	}
 	if got := Where(&geom.Scene{}, r2.Vec{X: 1.5, Y: 2}); got != "(1.5,\u00a02)\u00a0m" {
 		t.Errorf("got %q", got)
+	}
+}
+
+// Every panel is named by the boundary it belongs to.
+func TestBoundaryName(t *testing.T) {
+	lay := &geom.Layout{
+		Owners:  []geom.Owner{{Name: "trace"}},
+		Regions: []geom.Domain{{Name: "substrate"}, {Name: "background", Background: true}},
+	}
+	for _, c := range []struct {
+		p    mesh.Panel
+		want string
+	}{
+		{mesh.Panel{Owner: 0, Left: 0, Right: geom.Outside}, "trace"},
+		{mesh.Panel{Owner: -1, Left: 0, Right: 1}, "interface:substrate|background"},
+		{mesh.Panel{Owner: -1, Left: 0, Right: geom.Outside, Cond: geom.Insulated}, "wall:substrate"},
+		{mesh.Panel{Owner: -1, Left: 0, Right: geom.Outside, Cond: geom.Condition{Kind: geom.Potential}}, "ground"},
+	} {
+		if got := BoundaryName(lay, c.p); got != c.want {
+			t.Errorf("got %q, want %q", got, c.want)
+		}
 	}
 }
