@@ -76,7 +76,8 @@
 //
 // A source box of radius rs and a target box of radius rt whose centres are
 // d apart interact through expansions when rs <= rho (d - rt) and
-// rt <= rho (d - rs), rho = 0.5. Each such interaction then errs by at most
+// rt <= rho (d - rs), rho = 0.5, or, for the targets of a leaf one by one,
+// when rs <= rho |z - cs|. Each such interaction then errs by at most
 // B(p) times its own size, |q|/(2 pi) for a charge q (a point, or s L of a
 // panel's single layer) and |mu|/(2 pi |z - zeta|) for a dipole (d ds nu of a
 // double layer):
@@ -91,8 +92,9 @@
 // in the worst case, and met Tol itself in every test. The bound is
 // conservative: measured against direct summation (TestFarPlusNearMatchesDirect,
 // 3000 panels, random, graded to 1e-6 at a corner, and a thin plate 1e-4
-// thick), the largest error relative to the largest |u| was 3e-7 at Tol
-// 1e-3, 1.5e-10 at 1e-6, 2e-14 at 1e-10 and 2e-15 at 1e-12 (rounding).
+// thick), the largest error relative to the largest value was, for u and
+// grad u, 3e-7 and 1.3e-6 at Tol 1e-3, 1.5e-10 and 1e-9 at 1e-6, 2.1e-14 and
+// 7.3e-14 at 1e-10, 2.5e-15 and 3.7e-15 at 1e-12 (rounding).
 //
 // # Parallelism
 //

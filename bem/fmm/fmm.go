@@ -37,7 +37,9 @@ type Options struct {
 	Tol float64
 	// LeafSize is the largest number of targets or sources in a leaf box;
 	// 0 means 24. Larger leaves make the far field cheaper and the near
-	// lists longer (about 3 leaves' worth of panels per target on a curve).
+	// lists longer: at 24, about 50 near panels per collocation point of a
+	// boundary mesh (the panel's own leaf and its neighbours along the
+	// boundary).
 	LeafSize int
 	// Workers is the number of goroutines used to build the tree and in
 	// every product; 0 means runtime.GOMAXPROCS(0). Results do not depend on
@@ -274,7 +276,7 @@ func (t *Tree) Stats() Stats {
 		4*(len(q.src)+len(q.tgt)+len(q.leaves)+len(q.levels)) +
 		16*(len(t.sa)+len(t.sb)+len(t.tz)) + 4*len(t.targetLeaf) +
 		cs(t.lists.m2l) + cs(t.lists.m2p) + cs(t.lists.near) + cs(t.nearPanels) +
-		32*(len(t.panels)+len(t.targets)) + // the copies kept for Panel and Target
+		32*len(t.panels) + 16*len(t.targets) + // the copies kept for Panel and Target
 		2*16*(t.e.p+1)*len(q.nodes) + 16*len(t.sa) // one workspace
 	return s
 }

@@ -205,7 +205,8 @@ func quadrantCentre(c complex128, h float64, k int) complex128 {
 }
 
 // measure returns the centre of the bounding box of the items' extents and
-// the largest distance from it to an extent (at least rmin).
+// the largest distance from it to an extent (at least rmin). Coordinates are
+// finite (checked by New), so plain comparisons do.
 func measure(items []int32, ea, eb []complex128, rmin float64) (complex128, float64) {
 	if len(items) == 0 {
 		return 0, rmin
@@ -214,16 +215,29 @@ func measure(items []int32, ea, eb []complex128, rmin float64) (complex128, floa
 	xmin, xmax, ymin, ymax := real(z), real(z), imag(z), imag(z)
 	for _, it := range items {
 		for _, z := range [2]complex128{ea[it], eb[it]} {
-			xmin, xmax = math.Min(xmin, real(z)), math.Max(xmax, real(z))
-			ymin, ymax = math.Min(ymin, imag(z)), math.Max(ymax, imag(z))
+			x, y := real(z), imag(z)
+			if x < xmin {
+				xmin = x
+			}
+			if x > xmax {
+				xmax = x
+			}
+			if y < ymin {
+				ymin = y
+			}
+			if y > ymax {
+				ymax = y
+			}
 		}
 	}
 	c := complex(0.5*(xmin+xmax), 0.5*(ymin+ymax))
 	r2 := 0.0
 	for _, it := range items {
-		for _, z := range [2]complex128{ea[it], eb[it]} {
-			d := z - c
-			r2 = math.Max(r2, real(d)*real(d)+imag(d)*imag(d))
+		if d := abs2(ea[it] - c); d > r2 {
+			r2 = d
+		}
+		if d := abs2(eb[it] - c); d > r2 {
+			r2 = d
 		}
 	}
 	// The square root may round down: widen by a few ulps so that the
