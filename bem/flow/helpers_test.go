@@ -75,3 +75,5 @@ func ringOf(sc *geom.Scene, i int) geom.Ring { return sc.Bodies[i].Polygons[0][0
 func vertexNear(ring geom.Ring, p r2.Vec) r2.Vec { return ring[nearest(ring, p)] }
 
 func fmtG(x float64) string { return strconv.FormatFloat(x, 'f', 12, 64) }
+
+func bytesReader(b []byte) *bytes.Reader { return bytes.NewReader(b) }

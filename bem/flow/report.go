@@ -79,7 +79,7 @@ type BodyResult struct {
 
 // PanelResult is the surface flow on one panel, at its midpoint.
 type PanelResult struct {
-	Body  int     // index into Report.Bodies
+	Body  int     // index into Report.Bodies (-1: none)
 	Speed float64 // |v| in m/s
 	// Tangential is the velocity along the panel's tangent (from A to B),
 	// m/s: the surface velocity is Tangential times the tangent.
@@ -164,7 +164,10 @@ func (fs *System) Analyse(sol *bem.Solution) (*Report, error) {
 	}
 	for j, p := range m.Panels {
 		f := sol.F[j]
-		rep.Panels[j] = PanelResult{Body: body[p.Owner], Speed: math.Abs(f), Tangential: -f, Cp: 1 - (f/U)*(f/U)}
+		rep.Panels[j] = PanelResult{Body: -1, Speed: math.Abs(f), Tangential: -f, Cp: 1 - (f/U)*(f/U)}
+		if p.Owner >= 0 {
+			rep.Panels[j].Body = body[p.Owner]
+		}
 	}
 	rep.Bodies = make([]BodyResult, len(fs.Bodies))
 	var whole Coefficients
@@ -180,8 +183,8 @@ func (fs *System) Analyse(sol *bem.Solution) (*Report, error) {
 	}
 	rep.WholeChord = fs.Whole
 	rep.Whole = fs.coefficients(rep, fs.Whole, whole.Circulation, func(int) bool { return true }, along, across)
+	e := r2.Unit(r2.Sub(fs.Whole.TrailingEdge, fs.Whole.LeadingEdge))
 	for j := range rep.Panels {
-		e := r2.Unit(r2.Sub(fs.Whole.TrailingEdge, fs.Whole.LeadingEdge))
 		rep.Panels[j].WholeXOverC = r2.Dot(r2.Sub(m.Panels[j].Mid(), fs.Whole.LeadingEdge), e) / fs.Whole.Length
 	}
 	if fs.ground != nil {
