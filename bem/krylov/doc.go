@@ -14,8 +14,10 @@
 //
 // Second-kind integral equations (I/2 + a compact operator, the double
 // layer of package bem) converge in a number of iterations that does not
-// grow with the number of panels; first-kind ones (the single layer) need
-// more, growing with N, and a preconditioner.
+// grow with the number of panels (9 for every size in the tests, 16-18 on
+// rimfield's dense double-layer systems from 500 to 16000 panels); first-kind
+// ones (the single layer) needed 40-270 there, growing with N, and call for
+// a preconditioner.
 //
 //	res, err := krylov.GMRES(op, x, b, &krylov.Settings{Tol: 1e-10})
 //	var nc *krylov.NotConvergedError
