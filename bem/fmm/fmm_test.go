@@ -119,8 +119,8 @@ func cornerScene(n int) *scene {
 }
 
 // thinScene: two parallel lines of length 1, 1e-4 apart, the boundary of a
-// thin plate (lower face left to right, upper face right to left), panels ten
-// times longer than the gap.
+// thin plate (lower face left to right, upper face right to left), panels
+// about seven times longer than the gap at n = 3000.
 func thinScene(n int) *scene {
 	rng := rand.New(rand.NewPCG(3, 1))
 	s := &scene{name: "thin"}
