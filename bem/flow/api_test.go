@@ -35,6 +35,10 @@ func TestSweep(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	bodies, whole, err := Inspect(sc, m)
+	if err != nil || len(bodies) != 1 || bodies[0].Name != fs.Bodies[0].Name || bodies[0].Chord != fs.Bodies[0].Chord || whole != fs.Whole {
+		t.Errorf("Inspect: %+v, %+v, %v; Assemble found %+v, %+v", bodies, whole, err, fs.Bodies, fs.Whole)
+	}
 	angles := []float64{-8, -4, 0, 4, 8, 12, 16}
 	pts, err := fs.Sweep(angles)
 	if err != nil {

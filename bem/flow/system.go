@@ -88,13 +88,11 @@ type Body struct {
 // factorises the system with one Kutta condition per body that asks for
 // one. s tunes the assembly (nil: defaults; its Kutta list is replaced).
 func Assemble(sc *geom.Scene, m *mesh.Mesh, s *bem.Settings) (*System, error) {
-	if sc == nil || m == nil || m.Layout == nil {
-		panic("flow: Assemble needs a scene and its mesh")
-	}
-	if err := check(sc, m); err != nil {
+	bodies, whole, err := Inspect(sc, m)
+	if err != nil {
 		return nil, err
 	}
-	fs := &System{Scene: sc, Density: sc.Problem.Density, ground: m.Layout.Ground}
+	fs := &System{Scene: sc, Bodies: bodies, Whole: whole, Density: sc.Problem.Density, ground: m.Layout.Ground}
 	if !(fs.Density > 0) {
 		fs.Density = DefaultDensity
 	}
@@ -104,27 +102,41 @@ func Assemble(sc *geom.Scene, m *mesh.Mesh, s *bem.Settings) (*System, error) {
 		settings = *s
 	}
 	settings.Kutta = nil
-	dir := streamDir(sc)
-	for i := range sc.Bodies {
-		b, err := newBody(sc, fs.Mesh, i, dir)
-		if err != nil {
-			return nil, err
-		}
+	for _, b := range bodies {
 		if b.Kutta {
 			settings.Kutta = append(settings.Kutta, bem.Kutta{Owner: b.Owner, At: b.Chord.TrailingEdge})
 		}
-		fs.Bodies = append(fs.Bodies, b)
 	}
-	if len(fs.Bodies) == 1 {
-		fs.Whole = fs.Bodies[0].Chord
-	} else {
-		fs.Whole = wholeChord(sc, fs.Bodies, dir)
-	}
-	var err error
 	if fs.sys, err = bem.Assemble(fs.Mesh, &settings); err != nil {
 		return nil, err
 	}
 	return fs, nil
+}
+
+// Inspect checks that the stream-function formulation takes the scene sc
+// with its mesh m and returns what Assemble would find, without assembling:
+// each body's trailing edge and chord line, and the whole's chord line. Its
+// errors are Assemble's (a *geom.Error naming the feature for bad input).
+func Inspect(sc *geom.Scene, m *mesh.Mesh) ([]Body, Chord, error) {
+	if sc == nil || m == nil || m.Layout == nil {
+		panic("flow: Inspect and Assemble need a scene and its mesh")
+	}
+	if err := check(sc, m); err != nil {
+		return nil, Chord{}, err
+	}
+	dir := streamDir(sc)
+	var bodies []Body
+	for i := range sc.Bodies {
+		b, err := newBody(sc, m, i, dir)
+		if err != nil {
+			return nil, Chord{}, err
+		}
+		bodies = append(bodies, b)
+	}
+	if len(bodies) == 1 {
+		return bodies, bodies[0].Chord, nil
+	}
+	return bodies, wholeChord(sc, bodies, dir), nil
 }
 
 // System returns the factorised boundary element system.
