@@ -31,15 +31,22 @@ type Settings struct {
 
 // Kutta is a Kutta condition at a vertex of a floating owner's boundary:
 // F_a + F_b = 0 on the panel a that ends at the vertex and the panel b that
-// starts there. With the stream function of an ideal flow as the potential,
-// F is the tangential velocity along the boundary (up to sign), and the
-// condition makes the speeds on both faces of a trailing edge equal, so
-// that the flow leaves it smoothly; the owner's circulation, its total
-// inflow, becomes an unknown fixed by that condition (its NetInflow is
-// not used).
+// starts there (walking with the domain on the left). With the stream
+// function of an ideal flow as the potential, F is the tangential velocity
+// along the boundary (up to sign), and the condition makes the speeds on
+// both faces of a trailing edge equal, so that the flow leaves it
+// smoothly; the owner's circulation, its total inflow, becomes an unknown
+// fixed by that condition (its NetInflow is not used). A blunt trailing
+// edge (a short base between two corners) takes the condition across its
+// base: panel a ends at At, panel b starts at To.
 type Kutta struct {
 	Owner int    // index into Layout.Owners of a floating owner
 	At    r2.Vec // the vertex, metres: an end point of the owner's panels
+	// Blunt takes panel b at To, the other end of the base (the corner
+	// reached after At walking with the domain on the left), instead of
+	// at At.
+	Blunt bool
+	To    r2.Vec
 }
 
 // Data overrides the values of the owners' conditions for one solve, so

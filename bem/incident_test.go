@@ -210,4 +210,12 @@ func TestIncidentAndKuttaErrors(t *testing.T) {
 	if _, err := Assemble(m, &Settings{Kutta: []Kutta{{Owner: o, At: wedge[0]}}}); err != nil {
 		t.Errorf("a good Kutta condition: %v", err)
 	}
+	// Across the wedge's base, from wedge[1] to wedge[2] (walking with the
+	// fluid on the left).
+	if _, err := Assemble(m, &Settings{Kutta: []Kutta{{Owner: o, At: wedge[1], Blunt: true, To: wedge[2]}}}); err != nil {
+		t.Errorf("a Kutta condition across a base: %v", err)
+	}
+	if _, err := Assemble(m, &Settings{Kutta: []Kutta{{Owner: o, At: wedge[1], Blunt: true, To: r2.Vec{X: 5}}}}); err == nil {
+		t.Errorf("a base ending off the body: no error")
+	}
 }

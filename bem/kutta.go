@@ -36,20 +36,15 @@ func (pr *problem) kuttaRows(ks []Kutta) (map[int]row, error) {
 		if pr.floatCol[k.Owner] < 0 {
 			return nil, fmt.Errorf("bem: the Kutta condition on %q needs a floating boundary (an unknown constant potential whose total inflow the condition replaces)", name)
 		}
-		// The owner's panel end point nearest to the point.
-		best, at := math.Inf(1), r2.Vec{}
-		for _, p := range pr.m.Panels {
-			if p.Owner != k.Owner || p.Interface() {
-				continue
-			}
-			for _, v := range [2]r2.Vec{p.A, p.B} {
-				if d := r2.Norm(r2.Sub(v, k.At)); d < best {
-					best, at = d, v
-				}
-			}
+		at, err := pr.panelEnd(k.Owner, k.At)
+		if err != nil {
+			return nil, err
 		}
-		if best > kuttaTol*pr.length {
-			return nil, fmt.Errorf("bem: the Kutta point (%.6g, %.6g) m of %q is %.3g m from the nearest end of its panels; it must be a vertex of its boundary", k.At.X, k.At.Y, name, best)
+		to := at
+		if k.Blunt {
+			if to, err = pr.panelEnd(k.Owner, k.To); err != nil {
+				return nil, err
+			}
 		}
 		pa, pb, na, nb := -1, -1, 0, 0
 		for j, p := range pr.m.Panels {
@@ -59,7 +54,7 @@ func (pr *problem) kuttaRows(ks []Kutta) (map[int]row, error) {
 			if p.B == at {
 				pa, na = j, na+1
 			}
-			if p.A == at {
+			if p.A == to {
 				pb, nb = j, nb+1
 			}
 		}
@@ -70,4 +65,24 @@ func (pr *problem) kuttaRows(ks []Kutta) (map[int]row, error) {
 		out[k.Owner] = row{kind: rowKutta, owner: k.Owner, pa: pa, pb: pb, scale: pr.length / kbar}
 	}
 	return out, nil
+}
+
+// panelEnd returns the end point of owner o's panels nearest to p, which
+// must lie within kuttaTol of the scene's diagonal.
+func (pr *problem) panelEnd(o int, p r2.Vec) (r2.Vec, error) {
+	best, at := math.Inf(1), r2.Vec{}
+	for _, pn := range pr.m.Panels {
+		if pn.Owner != o || pn.Interface() {
+			continue
+		}
+		for _, v := range [2]r2.Vec{pn.A, pn.B} {
+			if d := r2.Norm(r2.Sub(v, p)); d < best {
+				best, at = d, v
+			}
+		}
+	}
+	if best > kuttaTol*pr.length {
+		return at, fmt.Errorf("bem: the Kutta point (%.6g, %.6g) m of %q is %.3g m from the nearest end of its panels; it must be a vertex of its boundary", p.X, p.Y, pr.m.Layout.Owners[o].Name, best)
+	}
+	return at, nil
 }

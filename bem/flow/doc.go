@@ -72,9 +72,16 @@
 // "kutta": true takes the body's sharpest convex corner: the vertex of its
 // outline with the smallest body-side angle, which must be below
 // MaxTrailingEdgeAngle (90 degrees); of equally sharp ones (within 1e-6
-// rad), the one farthest downstream in the scene's stream. "kutta": [x, y]
-// takes the nearest vertex of the outline, which must lie within 1e-3 of
-// the body's bounding-box diagonal of the point; a smooth point is
+// rad), the one farthest downstream in the scene's stream. A blunt
+// trailing edge counts too: a base (an edge at most MaxBase, 5 %, of the
+// body's bounding-box diagonal long, between two corners sharper than 170
+// degrees) whose corners' angles sum to less than 180 degrees plus the
+// limit, its angle being that excess (an open NACA trailing edge: two
+// corners of 98 degrees, 16; a plate's square end: 0); the Kutta
+// condition then holds across the base (equal speeds on the panels before
+// and after it) and the chord ends at the base's midpoint. "kutta": [x, y]
+// takes the nearest vertex of the outline, or a base the point lies on,
+// within 1e-3 of the body's bounding-box diagonal; a smooth point is
 // allowed (the Kutta condition then holds the rear stagnation point
 // there).
 //
@@ -91,7 +98,8 @@
 // one) to the farthest point of all the bodies. The upper surface is the
 // outline from the leading edge to the trailing edge walking with the
 // fluid on the left (on the left of the chord line seen from the leading
-// edge), the lower surface the rest; a cavity's panels are Inner.
+// edge), the lower surface the rest; a blunt trailing edge's base is Base,
+// a cavity's panels are Inner.
 //
 // # Accuracy
 //

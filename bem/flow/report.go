@@ -24,6 +24,7 @@ const (
 	Upper Side = iota + 1 // from the leading edge to the trailing edge, walking with the fluid on the left
 	Lower                 // from the trailing edge back to the leading edge
 	Inner                 // a cavity inside the body (still fluid)
+	Base                  // the base of a blunt trailing edge
 )
 
 // String names the side for tables and CSV files.
@@ -35,6 +36,8 @@ func (s Side) String() string {
 		return "lower"
 	case Inner:
 		return "inner"
+	case Base:
+		return "base"
 	}
 	return "invalid"
 }
@@ -257,10 +260,15 @@ func (fs *System) surface(rep *Report, i int) []r2.Vec {
 	var loop []int
 	side := Upper
 	for j := j0; ; {
+		p := m.Panels[j]
+		if b.Kutta && p.A == b.Base[1] {
+			side = Lower
+		}
 		loop = append(loop, j)
 		rep.Panels[j].Side = side
-		p := m.Panels[j]
-		if p.B == b.Chord.TrailingEdge {
+		if b.Kutta && p.B == b.Base[0] && b.Blunt {
+			side = Base
+		} else if p.B == b.Chord.TrailingEdge && !b.Blunt {
 			side = Lower
 		}
 		n, ok := start[p.B]
@@ -280,7 +288,7 @@ func (fs *System) surface(rep *Report, i int) []r2.Vec {
 			continue
 		}
 		pj, pn := m.Panels[j], m.Panels[n]
-		if b.Kutta && pj.B == b.Chord.TrailingEdge {
+		if b.Kutta && !b.Blunt && pj.B == b.Chord.TrailingEdge {
 			te = true
 			continue
 		}

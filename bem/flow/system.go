@@ -77,8 +77,17 @@ type Body struct {
 	// condition at TrailingEdge; without it the body carries none.
 	Kutta bool
 	// Angle is the body-side angle at the trailing edge in degrees (0 at a
-	// cusp); NaN without Kutta.
+	// cusp; at a blunt trailing edge the angle between the surfaces
+	// meeting its base, the sum of its corners' angles less 180); NaN
+	// without Kutta.
 	Angle float64
+	// Blunt is true for a blunt trailing edge: a short base from Base[0]
+	// to Base[1] (in the order met walking with the fluid on the left,
+	// from the upper surface to the lower); the Kutta condition holds
+	// across it, and Chord.TrailingEdge is its midpoint. At a sharp
+	// trailing edge both are the vertex.
+	Blunt bool
+	Base  [2]r2.Vec
 	Chord Chord
 }
 
@@ -104,7 +113,7 @@ func Assemble(sc *geom.Scene, m *mesh.Mesh, s *bem.Settings) (*System, error) {
 	settings.Kutta = nil
 	for _, b := range bodies {
 		if b.Kutta {
-			settings.Kutta = append(settings.Kutta, bem.Kutta{Owner: b.Owner, At: b.Chord.TrailingEdge})
+			settings.Kutta = append(settings.Kutta, bem.Kutta{Owner: b.Owner, At: b.Base[0], Blunt: b.Blunt, To: b.Base[1]})
 		}
 	}
 	if fs.sys, err = bem.Assemble(fs.Mesh, &settings); err != nil {
@@ -307,19 +316,43 @@ func newBody(sc *geom.Scene, m *mesh.Mesh, i int, dir r2.Vec) (Body, error) {
 		return b, nil
 	case k.Auto:
 		v, angle := sharpest(ring, dir)
-		if angle > MaxTrailingEdgeAngle*math.Pi/180 {
-			return b, ferr("kutta", "has no corner sharp enough for a trailing edge: the sharpest, at (%.6g, %.6g) %s, has a body-side angle of %.1f degrees, and a trailing edge must be sharper than %g degrees; close the trailing edge to one vertex, or give the point as \"kutta\": [x, y]",
-				ring[v].X/scale, ring[v].Y/scale, unit, angle*180/math.Pi, MaxTrailingEdgeAngle)
+		if e, eff := bluntest(ring, dir); e >= 0 && eff < angle-tieTol {
+			v, angle = -1, eff
+			b.Blunt, b.Base = true, [2]r2.Vec{ring[(e+1)%len(ring)], ring[e]}
+			te = r2.Scale(0.5, r2.Add(b.Base[0], b.Base[1]))
 		}
-		te, b.Kutta, b.Angle = ring[v], true, angle*180/math.Pi
+		if angle > MaxTrailingEdgeAngle*math.Pi/180 {
+			at := te
+			if v >= 0 {
+				at = ring[v]
+			}
+			return b, ferr("kutta", "has no corner sharp enough for a trailing edge: the sharpest, at (%.6g, %.6g) %s, has a body-side angle of %.1f degrees, and a trailing edge must be sharper than %g degrees; close the trailing edge to one vertex, or give the point as \"kutta\": [x, y]",
+				at.X/scale, at.Y/scale, unit, angle*180/math.Pi, MaxTrailingEdgeAngle)
+		}
+		if v >= 0 {
+			te = ring[v]
+			b.Base = [2]r2.Vec{te, te}
+		}
+		b.Kutta, b.Angle = true, angle*180/math.Pi
 	default:
 		v := nearest(ring, k.Point)
 		lo, hi := bounds(ring)
-		if d := r2.Norm(r2.Sub(ring[v], k.Point)); d > kuttaPointTol*r2.Norm(r2.Sub(hi, lo)) {
-			return b, ferr("kutta", "the point (%.6g, %.6g) %s is %.3g %s from the nearest vertex of the body's outline, (%.6g, %.6g) %s; the trailing edge must be a vertex of the body",
+		tol := kuttaPointTol * r2.Norm(r2.Sub(hi, lo))
+		d := r2.Norm(r2.Sub(ring[v], k.Point))
+		if d > tol {
+			// On the base of a blunt trailing edge?
+			if e := baseAt(ring, k.Point, tol); e >= 0 {
+				n := len(ring)
+				b.Blunt, b.Base = true, [2]r2.Vec{ring[(e+1)%n], ring[e]}
+				te = r2.Scale(0.5, r2.Add(b.Base[0], b.Base[1]))
+				b.Kutta, b.Angle = true, (angleAt(ring, e)+angleAt(ring, (e+1)%n)-math.Pi)*180/math.Pi
+				break
+			}
+			return b, ferr("kutta", "the point (%.6g, %.6g) %s is %.3g %s from the nearest vertex of the body's outline, (%.6g, %.6g) %s; the trailing edge must be a vertex of the body or lie on the short base of a blunt one",
 				k.Point.X/scale, k.Point.Y/scale, unit, d/scale, unit, ring[v].X/scale, ring[v].Y/scale, unit)
 		}
 		te, b.Kutta, b.Angle = ring[v], true, angleAt(ring, v)*180/math.Pi
+		b.Base = [2]r2.Vec{te, te}
 	}
 	b.Chord = chordFrom(te, [][]r2.Vec{ring}, 0)
 	if len(sc.Bodies) == 1 && sc.Problem.Chord > 0 {
@@ -469,6 +502,67 @@ func sharpest(ring []r2.Vec, dir r2.Vec) (int, float64) {
 		}
 	}
 	return best, angle
+}
+
+// MaxBase is the longest base of a blunt trailing edge, as a fraction of
+// the body's bounding-box diagonal: an open NACA trailing edge is 0.25 %
+// of the chord, a plate's end its thickness; a square's side is no base.
+const MaxBase = 0.05
+
+// isBase reports whether the ring's edge from vertex e to e+1 (counter-
+// clockwise) can be the base of a blunt trailing edge: short, between two
+// convex corners sharper than 170 degrees (the vertices of a polygon
+// standing for a curve are no corners).
+func isBase(ring []r2.Vec, e int, diag float64) bool {
+	n := len(ring)
+	f := (e + 1) % n
+	const corner = math.Pi - 10*math.Pi/180
+	return r2.Norm(r2.Sub(ring[f], ring[e])) <= MaxBase*diag && angleAt(ring, e) < corner && angleAt(ring, f) < corner
+}
+
+// bluntest returns the base (its first vertex, counter-clockwise) whose
+// two corners are together the sharpest, and their angle less pi (the
+// angle between the surfaces meeting the base), or -1; of equally sharp
+// ones, the one farthest along dir.
+func bluntest(ring []r2.Vec, dir r2.Vec) (int, float64) {
+	lo, hi := bounds(ring)
+	diag := r2.Norm(r2.Sub(hi, lo))
+	n := len(ring)
+	best, angle := -1, math.Inf(1)
+	for e := range ring {
+		if !isBase(ring, e, diag) {
+			continue
+		}
+		f := (e + 1) % n
+		a := angleAt(ring, e) + angleAt(ring, f) - math.Pi
+		mid := r2.Dot(r2.Add(ring[e], ring[f]), dir)
+		switch {
+		case a < angle-tieTol:
+			best, angle = e, a
+		case a <= angle+tieTol && mid > r2.Dot(r2.Add(ring[best], ring[(best+1)%n]), dir):
+			best, angle = e, math.Min(a, angle)
+		}
+	}
+	return best, angle
+}
+
+// baseAt returns the base of a blunt trailing edge within tol of p, or -1.
+func baseAt(ring []r2.Vec, p r2.Vec, tol float64) int {
+	lo, hi := bounds(ring)
+	diag := r2.Norm(r2.Sub(hi, lo))
+	n := len(ring)
+	for e := range ring {
+		if !isBase(ring, e, diag) {
+			continue
+		}
+		a, b := ring[e], ring[(e+1)%n]
+		d := r2.Sub(b, a)
+		t := math.Max(0, math.Min(1, r2.Dot(r2.Sub(p, a), d)/r2.Norm2(d)))
+		if r2.Norm(r2.Sub(p, r2.Add(a, r2.Scale(t, d)))) <= tol {
+			return e
+		}
+	}
+	return -1
 }
 
 // nearest returns the index of the vertex nearest to p.

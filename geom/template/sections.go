@@ -194,9 +194,10 @@ func encodeFlow(name string, f Flow, secs []section) ([]byte, error) {
 // points at cosine spacing x = (1 - cos beta)/2, beta evenly spaced: close
 // together at the leading and trailing edges. Code "MPTT" gives the
 // maximum camber m = M/100, its position p = P/10 and the thickness
-// t = TT/100 (all in chords). The closed trailing edge is the Kutta point;
-// an open one is a short base, whose midpoint is added as a vertex and
-// taken as the Kutta point (where the two streams meet).
+// t = TT/100 (all in chords). Both trailing edges carry "kutta": true: the
+// closed one is a sharp vertex, the open one a short base (0.25 % of the
+// chord at 12 % thickness), a blunt trailing edge across which the flow
+// leaves with equal speeds on both surfaces.
 type NACA4 struct {
 	Flow
 	Code     string  // four digits, "0012", "2412"
@@ -291,16 +292,17 @@ func (n NACA4) section(name, body string) (section, error) {
 		s.kutta = true
 		return s, nil
 	}
-	mid := r2.Scale(0.5, r2.Add(upper[pts], lower[pts]))
-	s.ring = append(s.ring, mid)
+	// The open trailing edge is a short base from the lower surface's
+	// last point to the upper's: a blunt trailing edge, which "kutta":
+	// true finds.
 	for k := pts; k >= 1; k-- {
 		s.ring = append(s.ring, upper[k])
 	}
 	for k := 0; k <= pts; k++ {
 		s.ring = append(s.ring, lower[k])
 	}
-	s.kutta = point{coord(mid.X), coord(mid.Y)}
-	s.te = mid
+	s.kutta = true
+	s.te = r2.Scale(0.5, r2.Add(upper[pts], lower[pts]))
 	return s, nil
 }
 
