@@ -18,9 +18,9 @@ import (
 const DefaultDensity = 1.225
 
 // MaxTrailingEdgeAngle is the largest body-side angle, in degrees, of a
-// corner that "kutta": true accepts as a trailing edge. A blunt or rounded
-// trailing edge (an open NACA trailing edge has two corners of about 95
-// degrees) is refused: close it to one vertex or name the point.
+// corner that "kutta": true accepts as a trailing edge (for a blunt one,
+// of the angle between the surfaces meeting its base). A rounded trailing
+// edge is refused: close it to a vertex or name the point.
 const MaxTrailingEdgeAngle = 90.0
 
 // kuttaPointTol is how far, relative to the body's bounding-box diagonal,
@@ -57,8 +57,9 @@ type Chord struct {
 	// LeadingEdge is the point of the section farthest from the trailing
 	// edge (metres).
 	LeadingEdge r2.Vec
-	// TrailingEdge is the Kutta vertex, or for a body without one its
-	// vertex farthest downstream in the scene's stream (metres).
+	// TrailingEdge is the Kutta vertex (the midpoint of a blunt trailing
+	// edge's base), or for a body without one the downstream end of its
+	// longest extent (metres).
 	TrailingEdge r2.Vec
 	// Length is the reference chord c in metres: problem.chord when the
 	// scene gives one (for the whole, and for a body alone in its scene),
@@ -74,7 +75,7 @@ type Body struct {
 	Name  string
 	Owner int // index into Mesh.Layout.Owners
 	// Kutta is true when the body's circulation is fixed by the Kutta
-	// condition at TrailingEdge; without it the body carries none.
+	// condition at its trailing edge; without it the body carries none.
 	Kutta bool
 	// Angle is the body-side angle at the trailing edge in degrees (0 at a
 	// cusp; at a blunt trailing edge the angle between the surfaces
@@ -151,9 +152,10 @@ func Inspect(sc *geom.Scene, m *mesh.Mesh) ([]Body, Chord, error) {
 // System returns the factorised boundary element system.
 func (fs *System) System() *bem.System { return fs.sys }
 
-// Solve solves for the uniform stream of speed U (m/s) at angle alphaDeg
-// (degrees, anticlockwise from the x axis) on the one factorisation. The
-// solution's potential is the stream function psi in m^2/s.
+// Solve solves for the uniform stream st (speed in m/s, angle in degrees
+// anticlockwise from the x axis) on the one factorisation. The solution's
+// potential is the stream function psi in m^2/s, its inflow density
+// d psi/dn, and a body's total inflow its anticlockwise circulation.
 func (fs *System) Solve(st geom.Stream) (*bem.Solution, error) {
 	if !(st.Speed > 0) || math.IsInf(st.Speed, 0) {
 		return nil, fmt.Errorf("flow: the stream speed must be a positive number of m/s, got %g", st.Speed)
@@ -229,6 +231,8 @@ func check(sc *geom.Scene, m *mesh.Mesh) error {
 	}
 	// Each closed loop of panels must belong to one body: bodies that touch
 	// or overlap form one solid, which needs one stream-function constant.
+	// (Where two bodies share a vertex the map keeps one of the panels
+	// starting there, and the walk crosses to the other body: caught.)
 	next := map[r2.Vec]int{}
 	for j, p := range m.Panels {
 		next[p.A] = j
