@@ -80,7 +80,8 @@
 // the left). A body without a Kutta condition keeps the equation "total
 // inflow = 0": no circulation. A Kutta condition (Settings.Kutta) replaces
 // that equation by F_a + F_b = 0 on the two panels meeting at the trailing
-// edge: equal speeds on both faces, so the flow leaves the edge smoothly.
+// edge (or on either side of a blunt one's base): equal speeds on both
+// faces, so the flow leaves the edge smoothly.
 // This fits the core as it is (floating boundaries, one extra row per
 // body, one constant per body), needs no cut, no wake geometry and no
 // jump conditions, gives the surface speed directly as |F| and the
