@@ -1,0 +1,163 @@
+package seep
+
+import (
+	"math"
+	"strconv"
+	"strings"
+	"testing"
+
+	"github.com/rimfield/rimfield/geom"
+	"github.com/rimfield/rimfield/mesh"
+)
+
+// Wedge exponents: one soil, a fixed-head face and an impervious one at
+// opening beta: lambda = pi / (2 beta); two fixed-head faces: pi / beta
+// (separable solutions in a wedge; Jackson, Classical Electrodynamics,
+// 1999, sec. 2.11). Two sectors of one soil give the same; two soils
+// between fixed-head faces satisfy k1 sin(l w2) cos(l w1) + k2 sin(l w1)
+// cos(l w2) = 0 (head and normal flux continuous across the interface).
+// Tolerance 1e-9 (bisection to rounding).
+func TestWedgeExponent(t *testing.T) {
+	for _, beta := range []float64{math.Pi / 3, math.Pi / 2, 0.75 * math.Pi, math.Pi, 1.5 * math.Pi} {
+		if got, want := wedgeExponent([]sector{{beta, 1}}, true), math.Pi/(2*beta); math.Abs(got-want) > 1e-9 {
+			t.Errorf("mixed, beta %.4g: %v, want %v", beta, got, want)
+		}
+		if got, want := wedgeExponent([]sector{{beta / 3, 2}, {2 * beta / 3, 2}}, false), math.Pi/beta; math.Abs(got-want) > 1e-9 {
+			t.Errorf("fixed heads, beta %.4g: %v, want %v", beta, got, want)
+		}
+	}
+	w1, w2, k1, k2 := math.Pi/2, math.Pi/2, 1.0, 5.0
+	l := wedgeExponent([]sector{{w1, k1}, {w2, k2}}, false)
+	if r := k1*math.Sin(l*w2)*math.Cos(l*w1) + k2*math.Sin(l*w1)*math.Cos(l*w2); math.Abs(r) > 1e-9 {
+		t.Errorf("two soils: lambda %v leaves %v", l, r)
+	}
+}
+
+// The toe of a flat floor on deep soil: the exit gradient is infinite
+// there, H / (pi sqrt(x^2 - l^2)) at x > l = b/2 (Harr, Groundwater and
+// Seepage, 1962, ch. 5, from memory; verified in shared/REFERENCES.md), so
+// the report flags it and gives the mean over the first L of the bed,
+// (H / (pi L)) 2 asinh(sqrt(L / 2l)). b = 10 m, L = b/10 (a tenth of the
+// floor's seepage path) and, with Options.ExitLength, 2.5 m. The section
+// reaches 200 m beyond the floor; the truncation study (walls twice as
+// far) moves the mean by 2e-4, and the tolerance is 1e-3 plus twice that
+// (observed 1e-4).
+func TestSingularToeAverage(t *testing.T) {
+	const b, H, L = 10.0, 3.0, 200.0
+	sec := newSection().
+		soil("sand", 1e-5, 1e-5, rect(-b/2-L, -L, b/2+L, 0)).
+		body("floor", rect(-b/2, 0, b/2, 1)).
+		bed("upstream bed", H, line(-b/2-L, 0, -b/2, 0)).
+		bed("downstream bed", 0, line(b/2, 0, b/2+L, 0))
+	s := sec.solve(t, mesh.Options{})
+	st, err := Truncation(s.sc, s.rep, TruncationOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	tol := 1e-3 + 2*math.Abs(st.ExitGradientChange)
+	mean := func(l float64) float64 { return H / (math.Pi * l) * 2 * math.Asinh(math.Sqrt(l/b)) }
+	for _, o := range []Options{{}, {ExitLength: 2.5}} {
+		rep, err := Analyse(s.sc, s.sys, s.sol, o)
+		if err != nil {
+			t.Fatal(err)
+		}
+		e := rep.ExitGradient
+		want := mean(e.AveragedOver)
+		t.Logf("%+v: mean exit gradient %.6f over %.3g m from (%g, %g) (theory %.6f, error %.2g; truncation %.2g)", o, e.Value, e.AveragedOver, e.At.X, e.At.Y, want, relErr(e.Value, want), st.ExitGradientChange)
+		if !e.Singular || e.Corner || e.At.X != b/2 || math.Abs(e.Exponent+0.5) > 1e-9 {
+			t.Errorf("%+v: exit %+v", o, *e)
+		}
+		if wantL := map[bool]float64{true: 2.5, false: b / 10}[o.ExitLength > 0]; math.Abs(e.AveragedOver-wantL) > 1e-9 {
+			t.Errorf("%+v: averaged over %g m, want %g", o, e.AveragedOver, wantL)
+		}
+		if relErr(e.Value, want) > tol {
+			t.Errorf("%+v: mean exit gradient %.6f, want %.6f", o, e.Value, want)
+		}
+		if !hasWarning(rep, "infinite in theory") {
+			t.Errorf("%+v: warnings %q", o, rep.Warnings)
+		}
+	}
+}
+
+// A sloping downstream face: where a fixed-head bed meets an impervious
+// face at an opening other than 90 degrees the gradient is singular
+// (opening above 90 degrees) or vanishes (below), lambda = pi/(2 beta).
+// A structure whose downstream face leans out at 45 degrees leaves the
+// soil a 135 degree wedge at the toe (r^-1/3, singular); one that leans in
+// leaves 45 degrees (lambda = 2: zero at the vertex).
+func TestCornerKinds(t *testing.T) {
+	for _, c := range []struct {
+		name   string
+		toe    geom.Ring
+		kind   CornerKind
+		lambda float64
+	}{
+		{"overhang", geom.Ring{{X: -5, Y: -2}, {X: 3, Y: -2}, {X: 5, Y: 0}, {X: 5, Y: 1}, {X: -5, Y: 1}}, CornerSingular, 2.0 / 3},
+		{"batter", geom.Ring{{X: -5, Y: -2}, {X: 7, Y: -2}, {X: 5, Y: 0}, {X: 5, Y: 1}, {X: -5, Y: 1}}, CornerVanishing, 2},
+	} {
+		s := newSection().
+			soil("sand", 1e-5, 1e-5, rect(-40, -20, 40, 0)).
+			body("weir", c.toe).
+			bed("upstream bed", 2, line(-40, 0, -5, 0)).
+			bed("downstream bed", 0, line(5, 0, 40, 0)).
+			solve(t, mesh.Options{})
+		e := s.exit(t, "downstream bed")
+		found := false
+		for _, k := range e.Corners {
+			if k.At.X == 5 && k.At.Y == 0 {
+				found = true
+				t.Logf("%s: corner %v, opening %.4g deg, lambda %.4f, value %.4g", c.name, k.Kind, k.Opening*180/math.Pi, k.Lambda, k.Value)
+				if k.Kind != c.kind || math.Abs(k.Lambda-c.lambda) > 1e-9 || k.Neighbour != "weir" {
+					t.Errorf("%s: corner %+v, want %v with lambda %g", c.name, k, c.kind, c.lambda)
+				}
+			}
+		}
+		if !found {
+			t.Errorf("%s: no corner at the toe in %+v", c.name, e.Corners)
+		}
+	}
+}
+
+// Bad input gets one clear error; a scene of another physics is refused.
+func TestAnalyseErrors(t *testing.T) {
+	s := halfPile(40, 10, 5, 1, 1e-5, 1e-5).solve(t, mesh.Options{})
+	for _, c := range []struct {
+		o    Options
+		want string
+	}{
+		{Options{ExitLength: -1}, "exit length"},
+		{Options{PipingSafety: math.NaN()}, "piping safety"},
+		{Options{HeaveSafety: math.Inf(1)}, "heave safety"},
+		{Options{Soil: "loam"}, "Lane's table"},
+	} {
+		if _, err := Analyse(s.sc, s.sys, s.sol, c.o); err == nil || !strings.Contains(err.Error(), c.want) || !strings.HasPrefix(err.Error(), "seep: ") {
+			t.Errorf("%+v: %v, want an error about %s", c.o, err, c.want)
+		}
+	}
+	other := *s.sc
+	other.Problem.Physics = geom.Laplace
+	if _, err := Analyse(&other, s.sys, s.sol, Options{}); err != ErrNotSeepage {
+		t.Errorf("laplace scene: %v", err)
+	}
+}
+
+// Benchmarks: the analysis of a sheet pile section at increasing panel
+// counts (the solve outside the timed loop).
+func BenchmarkAnalyse(b *testing.B) {
+	for _, n := range []int{500, 1000, 2000} {
+		b.Run("panels="+strconv.Itoa(n), func(b *testing.B) {
+			s := pileLayer(40, 10, 5, 0.5, 1).solve(b, mesh.Options{Panels: n})
+			b.ReportAllocs()
+			b.ResetTimer()
+			for range b.N {
+				rep, err := Analyse(s.sc, s.sys, s.sol, Options{})
+				if err != nil {
+					b.Fatal(err)
+				}
+				sinkReport = rep
+			}
+		})
+	}
+}
+
+var sinkReport *Report
