@@ -46,10 +46,20 @@ type Map struct {
 	// picture is broken in two (three lines at most).
 	Title, Subtitle string
 	// Contours and Lines (flux lines) are drawn over the field, in metres.
-	Contours []geom.LevelLine
-	Lines    [][]r2.Vec
-	// Marker, when not nil, circles a point and names it.
+	// The colour bar marks the contours' levels unless OtherContours says
+	// that they are of another quantity (a flow's streamlines over its
+	// speed).
+	Contours      []geom.LevelLine
+	OtherContours bool
+	Lines         [][]r2.Vec
+	// Marker, when not nil, circles a point and names it; Marks are more
+	// points marked the same way (stagnation points, exit points).
 	Marker *Marker
+	Marks  []Marker
+	// PlainLines draws the Lines without arrowheads: lines whose direction
+	// means nothing (the equipotentials of a flow drawn over its stream
+	// function).
+	PlainLines bool
 	// Scene gives the bodies, regions and edges to draw (the scene's
 	// medium, its only region or the one that holds all the others, is not
 	// named), the coordinate
@@ -207,20 +217,33 @@ func (m *Map) draw(c canvas, W, H float64) {
 	var placed []box // what labels must not cover: arrowheads, the marker
 	for _, l := range m.Lines {
 		for _, piece := range clipLine(l, f.win) {
+			if m.PlainLines {
+				if len(piece) > 1 {
+					c.stroke(fluxLine, 1.3*st.line, nil, false, f.pxs(piece))
+				}
+				continue
+			}
 			if b, ok := drawFluxLine(c, f, piece, st); ok {
 				placed = append(placed, b)
 			}
 		}
 	}
 	if m.Marker != nil {
-		placed = append(placed, drawMarker(c, f, *m.Marker, st)...)
+		placed = append(placed, drawMarker(c, f, *m.Marker, st, placed)...)
+	}
+	for _, mk := range m.Marks {
+		if f.win.Contains(mk.At) {
+			placed = append(placed, drawMarker(c, f, mk, st, placed)...)
+		}
 	}
 	m.drawLabels(c, f, st, geo, placed)
 	drawAxes(c, f, st, unit, scale)
 	drawScaleBar(c, f, st, unit, scale)
 	var levels []float64
 	for _, l := range m.Contours {
-		levels = append(levels, l.Level)
+		if !m.OtherContours {
+			levels = append(levels, l.Level)
+		}
 	}
 	drawColourBar(c, m.colors(), f.x0+f.pw+st.font*1.2, f.y0, barW, f.ph, lo, hi, disp.Div, over, under, levels, label, st)
 
@@ -606,17 +629,21 @@ func (m *Map) drawLabels(c canvas, f frame, st style, geo clippedScene, placed [
 		bw, bh := p1.X-p0.X, p0.Y-p1.Y
 		tw, th := c.measure(b.name, st.font)
 		at := f.px(labelPoint(pg))
-		if tw+4 <= bw && th*1.6 <= bh && pg.Contains(f.world(at.X, at.Y)) {
+		if tw+4 <= bw && th*1.6 <= bh && pg.Contains(f.world(at.X, at.Y)) && !overlapsAny(textBox(at.X, at.Y, tw, th, 0.5, 0.5, pad), placed) {
 			haloText(c, b.name, at.X, at.Y, st.font, black, 0.5, 0.5)
 			placed = append(placed, textBox(at.X, at.Y, tw, th, 0.5, 0.5, pad))
 			continue
 		}
 		// Beside the body, at its right (left when that leaves the plot),
-		// vertically at its middle.
+		// vertically at its middle; below it when that covers a marker.
 		y := clamp((p0.Y+p1.Y)/2, f.y0+th, f.y0+f.ph-2)
 		x, ax := p1.X+st.font*0.4, 0.0
 		if x+tw > f.x0+f.pw {
 			x, ax = p0.X-st.font*0.4, 1
+		}
+		if overlapsAny(textBox(x, y, tw, th, ax, 0.5, pad), placed) {
+			x, ax = (p0.X+p1.X)/2, 0.5
+			y = clamp(p0.Y+th, f.y0+th, f.y0+f.ph-2)
 		}
 		haloText(c, b.name, x, y, st.font, black, ax, 0.5)
 		placed = append(placed, textBox(x, y, tw, th, ax, 0.5, pad))
@@ -842,9 +869,11 @@ func drawFluxLine(c canvas, f frame, l []r2.Vec, st style) (box, bool) {
 	return box{}, false
 }
 
-// drawMarker circles a point and writes its text beside it; it returns the
-// boxes that the circle and the text take.
-func drawMarker(c canvas, f frame, mk Marker, st style) []box {
+// drawMarker circles a point and writes its text beside it, where it
+// covers none of the boxes already placed if it can (above right, above
+// left, below right, below left); it returns the boxes that the circle and
+// the text take.
+func drawMarker(c canvas, f frame, mk Marker, st style, placed []box) []box {
 	p := f.px(mk.At)
 	r := st.font * 0.6
 	circ := make([]r2.Vec, 32)
@@ -861,16 +890,40 @@ func drawMarker(c canvas, f frame, mk Marker, st style) []box {
 		return out
 	}
 	tw, th := c.measure(mk.Text, st.font)
-	x, ax := p.X+2.2*r, 0.0
-	if x+tw > f.x0+f.pw {
-		x, ax = p.X-2.2*r, 1
+	type spot struct{ x, y, ax float64 }
+	var spots []spot
+	for _, dy := range []float64{-1.6 * r, 2.2 * r} {
+		for _, side := range []float64{1, -1} {
+			x, ax := p.X+2.2*r, 0.0
+			if side < 0 {
+				x, ax = p.X-2.2*r, 1
+			}
+			spots = append(spots, spot{x, p.Y + dy, ax})
+		}
 	}
-	y := p.Y - 1.6*r
-	if y < f.y0+st.font {
-		y = p.Y + 2.2*r
+	inside := func(sp spot) bool {
+		b := textBox(sp.x, sp.y, tw, th, sp.ax, 0.5, 0)
+		return b.x0 >= f.x0 && b.x1 <= f.x0+f.pw && b.y0 >= f.y0 && b.y1 <= f.y0+f.ph
 	}
-	haloText(c, mk.Text, x, y, st.font, black, ax, 0.5)
-	return append(out, textBox(x, y, tw, th, ax, 0.5, st.font*0.2))
+	best := -1
+	for i, sp := range spots {
+		if !inside(sp) {
+			continue
+		}
+		if best < 0 {
+			best = i
+		}
+		if !overlapsAny(textBox(sp.x, sp.y, tw, th, sp.ax, 0.5, st.font*0.2), append(placed, out...)) {
+			best = i
+			break
+		}
+	}
+	if best < 0 {
+		best = 0
+	}
+	sp := spots[best]
+	haloText(c, mk.Text, sp.x, sp.y, st.font, black, sp.ax, 0.5)
+	return append(out, textBox(sp.x, sp.y, tw, th, sp.ax, 0.5, st.font*0.2))
 }
 
 // drawAxes draws the frame with ticks labelled in the scene's unit.

@@ -234,10 +234,56 @@ func sources(sol *bem.Solution) []int {
 
 // seed is where a line starts.
 type seed struct {
-	at     r2.Vec // on the boundary
-	start  r2.Vec // just inside the domain
-	flux   float64
-	source int
+	at      r2.Vec // on the boundary
+	start   r2.Vec // just inside the domain
+	flux    float64
+	source  int
+	against bool // trace against the flux, along K grad u
+}
+
+// Start is a point inside the domain that a line is traced from: along the
+// flux -K grad u, or against it (Against).
+type Start struct {
+	At      r2.Vec
+	Against bool
+}
+
+// TraceFrom traces one line from each start, within w, as Trace traces its
+// flux lines (a start outside the domain or w gives a line of one point).
+// A job draws lines of its own with it, such as the equipotentials of a
+// flow seeded where the stream enters the window.
+func TraceFrom(sol *bem.Solution, w Window, starts []Start, o TraceOptions) []Line {
+	if o.Tol <= 0 {
+		o.Tol = defaultTol
+	}
+	tr := newTracer(sol, w, o.Tol)
+	out := make([]Line, len(starts))
+	workers := o.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for range min(workers, len(starts)) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				i := int(next.Add(1) - 1)
+				if i >= len(starts) {
+					return
+				}
+				st := starts[i]
+				if !w.Contains(st.At) {
+					out[i] = Line{Points: []r2.Vec{st.At}, Source: -1, End: -1}
+					continue
+				}
+				out[i] = tr.trace(seed{at: st.At, start: st.At, source: -1, against: st.Against})
+			}
+		}()
+	}
+	wg.Wait()
+	return out
 }
 
 // placeSeeds puts seeds at cumulative inflow (m+1/2)*step along the source
@@ -313,8 +359,18 @@ var (
 // trace integrates one line from its seed.
 func (tr *tracer) trace(s seed) Line {
 	ln := Line{Points: []r2.Vec{s.at, s.start}, Seed: s.flux, Source: s.source, End: -1}
+	if s.at == s.start {
+		ln.Points = ln.Points[:1]
+	}
 	x := s.start
-	k1, ok := tr.dir(x)
+	dir := tr.dir
+	if s.against {
+		dir = func(p r2.Vec) (r2.Vec, bool) {
+			d, ok := tr.dir(p)
+			return r2.Scale(-1, d), ok
+		}
+	}
+	k1, ok := dir(x)
 	if !ok {
 		return ln
 	}
@@ -337,7 +393,7 @@ func (tr *tracer) trace(s seed) Line {
 			if st == 6 {
 				xn = y
 			}
-			d, ok := tr.dir(y)
+			d, ok := dir(y)
 			if !ok {
 				failed, bad = true, y
 				break

@@ -3,6 +3,7 @@ package job
 import (
 	"github.com/rimfield/rimfield/bem"
 	"github.com/rimfield/rimfield/bem/draw"
+	"github.com/rimfield/rimfield/bem/grid"
 	"github.com/rimfield/rimfield/geom"
 	"github.com/rimfield/rimfield/mesh"
 	"gonum.org/v1/gonum/spatial/r2"
@@ -91,6 +92,40 @@ type Outcome struct {
 	// Peak, when not nil, is the surface peak of |grad u| that field.png
 	// marks instead of the largest value on its sampling grid.
 	Peak *Mark
+	// Marks are more points that both maps show (stagnation points, exit
+	// points), with their text.
+	Marks []Mark
+	// Levels, when not nil, chooses the contour levels from the range of
+	// the sampled potential (lo, hi) and the count asked for (--levels);
+	// nil means k levels evenly spaced between the lowest and highest
+	// potential on the boundary.
+	Levels func(lo, hi float64, k int) []float64
+	// FluxLines, when not nil, draws the lines over the potential map
+	// instead of the flow net traced from the sources: given the window and
+	// the number of equipotentials asked for, it returns the lines in
+	// metres (a flow's velocity equipotentials, seeded where the stream
+	// enters the window). No flow net is counted then.
+	FluxLines func(w grid.Window, k int) [][]r2.Vec
+	// Plots are pictures of the job's own (a chart against something else
+	// than the arc length), each written as NAME.png (and .svg).
+	Plots []Plot
+	// Files are more files of the job's own (a sweep's table), written
+	// into the output directory as they are.
+	Files []File
+}
+
+// Plot is one picture of a job's own: charts drawn one above the other.
+type Plot struct {
+	Name    string // file name without extension: "pressure"
+	Caption string // what it shows, for the report
+	Charts  draw.Charts
+}
+
+// File is a file of a job's own: its name in the output directory and its
+// content.
+type File struct {
+	Name string // "sweep.csv"
+	Data []byte
 }
 
 // Section is the job's part of results.json: Value (a struct with JSON
@@ -101,10 +136,12 @@ type Section struct {
 }
 
 // Column is one column of boundary.csv: a header with its unit
-// ("field_V_per_m") and one value per panel.
+// ("field_V_per_m") and one value per panel, a number (Values) or, when
+// Text is not nil, a word (Text: "upper", "lower").
 type Column struct {
 	Header string
 	Values []float64
+	Text   []string
 }
 
 // Mark is a point to show on the maps.
@@ -187,7 +224,8 @@ type Words struct {
 	Material func(geom.Material) string
 	// Condition describes a boundary condition with its unit, for summaries.
 	Condition func(geom.Condition) string
-	// Net names the flow net ("flow net", "field plot"), FluxLines its
+	// Net names the flow net ("flow net", "field plot"; "" when the lines
+	// form none worth counting), FluxLines its
 	// lines of flux ("flow lines", "field lines"), Channels the tubes
 	// between them ("flow channels", "flux tubes"), Drops the steps between
 	// equipotentials ("equipotential drops") and ShapeFactor what the
@@ -195,4 +233,11 @@ type Words struct {
 	Net, FluxLines, Channels, Drops, ShapeFactor string
 	// Ground labels a grounded plane on the maps ("ground plane, 0 V").
 	Ground string
+	// Unoriented is true when the flux lines have no direction worth an
+	// arrow (the equipotentials of a flow, drawn over its stream function).
+	// With Net empty no flow net is counted (results.json has no flow_net).
+	Unoriented bool
+	// ContoursOnField draws the contours over the map of |grad u| too (a
+	// flow's streamlines over its speed).
+	ContoursOnField bool
 }

@@ -42,8 +42,8 @@ func newBoundaryTable(t *task) (*boundaryTable, error) {
 		{Header: csvHeader("inflow", units.DensityCSV), Values: sol.F},
 	}
 	for _, c := range t.out.Columns {
-		if len(c.Values) != n {
-			return nil, fmt.Errorf("internal error: column %s has %d values for %d panels", c.Header, len(c.Values), n)
+		if got := max(len(c.Values), len(c.Text)); got != n || (c.Values != nil && c.Text != nil) {
+			return nil, fmt.Errorf("internal error: column %s has %d values for %d panels", c.Header, got, n)
 		}
 	}
 	bt.columns = append(bt.columns, t.out.Columns...)
@@ -92,6 +92,10 @@ func (t *boundaryTable) write(w io.Writer) error {
 	for i, name := range t.names {
 		rec[0] = name
 		for k, c := range t.columns {
+			if c.Text != nil {
+				rec[1+k] = c.Text[i]
+				continue
+			}
 			rec[1+k] = formatCell(c.Values[i])
 		}
 		if err := cw.Write(rec); err != nil {

@@ -23,8 +23,8 @@ func init() {
 // "level" and "unit" properties, in the scene's coordinate unit so that the
 // file overlays the scene.
 func contourFiles(t *task) ([]outputFile, error) {
-	lo, hi := grid.BoundaryRange(t.sol())
-	levels := t.contourLevels(lo, hi)
+	lo, hi := t.levelRange()
+	levels := t.contourLevels()
 	var lines []geom.LevelLine
 	if t.pics != nil && t.pics.at != nil {
 		var out []string

@@ -12,7 +12,6 @@ import (
 	"github.com/rimfield/rimfield/bem/grid"
 	"github.com/rimfield/rimfield/bem/job"
 	"github.com/rimfield/rimfield/geom"
-	"gonum.org/v1/gonum/spatial/r2"
 )
 
 // Picture files solve writes (the SVGs with --svg).
@@ -35,8 +34,16 @@ func flowNetFiles(t *task) ([]outputFile, error) {
 	if err != nil {
 		return nil, err
 	}
+	if f := t.out.FluxLines; f != nil {
+		pj.net = &grid.FlowNet{}
+		pj.lines = f(t.window(), t.levels)
+		return nil, nil
+	}
 	pj.net = grid.Trace(t.sol(), t.window(), t.levels+1, grid.TraceOptions{})
-	if n := pj.net; pj.res != nil && n.Channels > 0 {
+	for _, l := range pj.net.Lines {
+		pj.lines = append(pj.lines, l.Points)
+	}
+	if n := pj.net; pj.res != nil && n.Channels > 0 && t.words.Net != "" {
 		pj.res.FlowNet = &flowNetInfo{Channels: number(n.Channels), Drops: n.Drops, ShapeFactor: number(n.ShapeFactor),
 			Inflow: number(n.Inflow), Head: number(n.Head), Conductivity: number(n.Conductivity)}
 	}
@@ -62,17 +69,14 @@ func pictureSpecs(t *task) (*pictures, error) {
 	g := t.sampled()
 	sc, w, out, sol := t.scene, t.words, t.out, t.sol()
 	lo, hi := grid.BoundaryRange(sol)
-	levels := t.contourLevels(lo, hi)
+	levels := t.contourLevels()
 	contours := grid.Contours(g, levels, w.Units.Potential)
-	net := pj.net
-	if net == nil {
-		net = grid.Trace(sol, g.Window, t.levels+1, grid.TraceOptions{})
-		pj.net = net
+	if pj.net == nil {
+		if _, err := flowNetFiles(t); err != nil {
+			return nil, err
+		}
 	}
-	var lines [][]r2.Vec
-	for _, l := range net.Lines {
-		lines = append(lines, l.Points)
-	}
+	net, lines := pj.net, pj.lines
 	// Title: the scene and its main result; below, the job's lines and the
 	// flow net.
 	title := sceneName(t.scenePath)
@@ -88,11 +92,17 @@ func pictureSpecs(t *task) (*pictures, error) {
 	}
 	ps := &pictures{}
 	ps.potential = &draw.Map{Grid: g, Values: g.U, Label: w.Potential, Unit: w.Units.Potential, Title: title,
-		Subtitle: strings.Join(potSub, "\n"), Contours: contours, Lines: lines, Scene: sc, Ground: w.Ground}
-	if hi > lo {
+		Subtitle: strings.Join(potSub, "\n"), Contours: contours, Lines: lines, PlainLines: w.Unoriented, Scene: sc, Ground: w.Ground}
+	if hi > lo && out.Levels == nil {
+		// The colours span the boundary's potentials, as the levels do; a
+		// job that chooses its levels from the sampled range gets the
+		// colours of that range.
 		ps.potential.Lo, ps.potential.Hi = lo, hi
 	}
 	ps.potentialCaption = fmt.Sprintf("%s with equipotentials (dark lines) and %s (white, arrows in the direction of flux).", job.Capitalise(w.Potential), w.FluxLines)
+	if w.Unoriented {
+		ps.potentialCaption = fmt.Sprintf("%s with its contours (dark lines) and %s (white).", job.Capitalise(w.Potential), w.FluxLines)
+	}
 
 	mag := g.Magnitude()
 	peak, at := grid.Peak(mag)
@@ -124,7 +134,15 @@ func pictureSpecs(t *task) (*pictures, error) {
 	} else {
 		t.warnings = append(t.warnings, "field.png has no peak: no grid sample lies in the domain; give a larger --image-size or check the scene")
 	}
+	if w.ContoursOnField {
+		fld.Contours, fld.OtherContours = contours, true
+	}
 	ps.field = fld
+	for _, mk := range out.Marks {
+		m := draw.Marker{At: mk.At, Text: mk.Text}
+		ps.potential.Marks = append(ps.potential.Marks, m)
+		ps.field.Marks = append(ps.field.Marks, m)
+	}
 
 	potSeries, inSeries := draw.BoundarySeries(sol)
 	ps.charts = draw.Charts{
@@ -207,6 +225,13 @@ func pictureFiles(t *task) ([]outputFile, error) {
 			return nil, err
 		}
 	}
+	for _, pl := range t.out.Plots {
+		cs := pl.Charts
+		h := int(math.Min(550*float64(len(cs)), math.Max(350*float64(len(cs)), 0.375*float64(len(cs))*float64(width))))
+		if err := add(pl.Name, pl.Caption, func(w io.Writer) error { return cs.PNG(w, width, h) }, func(w io.Writer) error { return cs.SVG(w, width, h) }); err != nil {
+			return nil, err
+		}
+	}
 	return files, nil
 }
 
@@ -273,7 +298,7 @@ func sceneName(path string) string {
 
 // flowNetText describes the flow net for the subtitle, in the job's words.
 func flowNetText(net *grid.FlowNet, w *job.Words, explicit bool) string {
-	if len(net.Lines) == 0 || !(net.Channels > 0) {
+	if len(net.Lines) == 0 || !(net.Channels > 0) || w.Net == "" {
 		return ""
 	}
 	s := fmt.Sprintf("%s: %.3g %s, %d %s, shape factor %.4g = %s", job.Capitalise(w.Net), net.Channels, w.Channels, net.Drops, w.Drops, net.ShapeFactor, w.ShapeFactor)

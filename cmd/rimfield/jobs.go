@@ -6,6 +6,7 @@ import (
 	"slices"
 
 	"github.com/rimfield/rimfield/bem/electro"
+	"github.com/rimfield/rimfield/bem/flow"
 	"github.com/rimfield/rimfield/bem/job"
 	"github.com/rimfield/rimfield/bem/laplace"
 	"github.com/rimfield/rimfield/bem/seep"
@@ -19,6 +20,7 @@ var jobs = map[geom.Physics]func() job.Job{
 	geom.Laplace:       laplace.New,
 	geom.Electrostatic: electro.NewJob,
 	geom.Seepage:       seep.NewJob,
+	geom.Flow:          flow.NewJob,
 }
 
 // jobSet holds one job per physics, made before the flags are parsed so

@@ -7,6 +7,7 @@ import (
 
 	"github.com/rimfield/rimfield/bem/grid"
 	"github.com/spf13/pflag"
+	"gonum.org/v1/gonum/spatial/r2"
 )
 
 // pictureJob is what the pictures and the report share within one solve:
@@ -26,6 +27,7 @@ type pictureJob struct {
 	res   *results
 	drawn []picture
 	net   *grid.FlowNet
+	lines [][]r2.Vec // the lines drawn over the potential: the flow net's, or the job's
 }
 
 // picture is one drawn picture, kept for the report.

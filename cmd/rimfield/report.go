@@ -112,7 +112,7 @@ func buildReport(t *task) *reportData {
 		d.Regions = regionTable(r)
 	}
 	d.Bounds = boundsTable(t, r)
-	d.BoundsNote = "Potential: length-weighted mean over the boundary. " + w.InflowNote + " Length: of the pieces that bound the domain. Values below 10^-9 of the largest in their column are rounding and show as 0."
+	d.BoundsNote = job.Capitalise(w.Potential) + ": length-weighted mean over the boundary. " + w.InflowNote + " Length: of the pieces that bound the domain. Values below 10^-9 of the largest in their column are rounding and show as 0."
 	if r.PotentialAtInfinity != nil {
 		d.Infinity = draw.FormatSI(float64(*r.PotentialAtInfinity), u.Potential)
 	}
@@ -120,7 +120,7 @@ func buildReport(t *task) *reportData {
 	if d.Results == "" {
 		d.Results = "Results"
 	}
-	if n := pj.net; n != nil && n.Channels > 0 {
+	if n := pj.net; n != nil && n.Channels > 0 && w.Net != "" {
 		d.Net = job.Capitalise(w.Net)
 		d.NetNote = fmt.Sprintf("With equipotentials at equal %s and %s at equal flux, the %s is made of curvilinear squares, and the shape factor N_f/N_d = %s.", w.Drops, w.FluxLines, w.Net, w.ShapeFactor)
 		d.FlowNet = []valueRow{

@@ -145,6 +145,9 @@ func resultFiles(t *task, images bool) (*results, []outputFile, error) {
 		t.pics.res = res
 	}
 	files := []outputFile{{boundaryName, table.write}}
+	for _, f := range t.out.Files {
+		files = append(files, bytesFile(f.Name, f.Data))
+	}
 	for _, a := range artifacts {
 		if a.image && !images {
 			continue

@@ -1,6 +1,8 @@
 package main
 
 import (
+	"math"
+
 	"github.com/rimfield/rimfield/bem"
 	"github.com/rimfield/rimfield/bem/grid"
 	"github.com/rimfield/rimfield/bem/job"
@@ -66,12 +68,35 @@ func (t *task) window() grid.Window {
 	return grid.Auto(t.mesh)
 }
 
-// contourLevels returns the equipotential levels of the task: --at as given,
-// or --levels K evenly spaced between the lowest and highest boundary
-// potential lo and hi (nil when they are equal).
-func (t *task) contourLevels(lo, hi float64) []float64 {
+// levelRange returns the range of potential the equipotentials are drawn
+// from: the lowest and highest potential on the boundary, or, for a job
+// that chooses its levels (Outcome.Levels), the range of the sampled grid.
+func (t *task) levelRange() (lo, hi float64) {
+	if t.out.Levels == nil {
+		return grid.BoundaryRange(t.sol())
+	}
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for _, v := range t.sampled().U {
+		if !math.IsNaN(v) {
+			lo, hi = math.Min(lo, v), math.Max(hi, v)
+		}
+	}
+	return lo, hi
+}
+
+// contourLevels returns the equipotential levels of the task: --at as
+// given, the job's choice, or --levels K evenly spaced between the lowest
+// and highest boundary potential (nil when they are equal).
+func (t *task) contourLevels() []float64 {
 	if t.pics != nil && t.pics.at != nil {
 		return t.pics.at
+	}
+	lo, hi := t.levelRange()
+	if t.out.Levels != nil {
+		if !(hi > lo) {
+			return nil
+		}
+		return t.out.Levels(lo, hi, t.levels)
 	}
 	return grid.Levels(lo, hi, t.levels)
 }

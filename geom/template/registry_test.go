@@ -37,15 +37,18 @@ func TestEntries(t *testing.T) {
 		if _, err := geom.Read(bytes.NewReader(def)); err != nil {
 			t.Errorf("%s: %v", e.Name, err)
 		}
-		// The builder reads the parameters when called, not when made: a
-		// 32-gon instead of the default changes the scene.
+		// The builder reads the parameters when called, not when made: the
+		// first non-zero number made a tenth larger changes the scene.
+		changed := ""
 		for _, p := range params {
-			if p.Name == "sides" {
-				*p.Value.(*int) = 32
+			if v, ok := p.Value.(*float64); ok && *v != 0 {
+				*v *= 1.1
+				changed = p.Name
+				break
 			}
 		}
-		if again, err := build(); err != nil || bytes.Equal(again, def) {
-			t.Errorf("%s: --sides 32 did not reach the builder (%v)", e.Name, err)
+		if again, err := build(); changed == "" || err != nil || bytes.Equal(again, def) {
+			t.Errorf("%s: --%s did not reach the builder (%v)", e.Name, changed, err)
 		}
 	}
 }
