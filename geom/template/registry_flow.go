@@ -11,7 +11,7 @@ func flowParams(f *Flow) []Param {
 		number("speed", &f.Speed, 1, "speed of the uniform stream in m/s"),
 		number("angle", &f.AngleDeg, 4, "angle of attack in degrees: the stream's angle to the chord line, anticlockwise (positive lifts the section)"),
 		number("density", &f.Density, 1.225, "density of the fluid in kg/m^3 (1.225: air at sea level; about 1000 for water)"),
-		length("ground-height", &f.GroundHeight, 0, "height of the quarter-chord point above a ground plane (slip wall); 0 for none. With a ground plane the stream runs along it and the section is pitched by --angle"),
+		number("ground-height", &f.GroundHeight, 0, "height of the quarter-chord point above a ground plane (a slip wall), in --unit; 0 for none. With a ground plane the stream runs along it and the section is pitched by --angle"),
 	}
 }
 
