@@ -161,3 +161,41 @@ func BenchmarkAnalyse(b *testing.B) {
 }
 
 var sinkReport *Report
+
+// A double-wall cofferdam, symmetric about x = 0: two sheet piles 0.5 m
+// thick, 6 m into a 15 m layer, river at 4 m outside, the excavation
+// between them pumped down to 0. Water leaves through the excavation's
+// floor at both piles, one corner with the soil clockwise of the floor's
+// direction, the other counter-clockwise: by symmetry the two corner
+// values, the two heave checks and the two walls' uplifts must agree
+// (observed to 1e-9 relative; the mesh is symmetric to rounding).
+func TestCofferdamSymmetry(t *testing.T) {
+	const w, d, gap = 0.5, 6.0, 8.0
+	x1, x2 := gap/2, gap/2+w
+	s := newSection().
+		soil("sand", 1e-5, 1e-5, rect(-60, -15, 60, 0)).
+		body("left wall", rect(-x2, -d, -x1, 1)).
+		body("right wall", rect(x1, -d, x2, 1)).
+		bed("river left", 4, line(-60, 0, -x2, 0)).
+		bed("river right", 4, line(x2, 0, 60, 0)).
+		bed("excavation", 0, line(-x1, 0, x1, 0)).
+		solve(t, mesh.Options{})
+	e := s.exit(t, "excavation")
+	var vals []float64
+	for _, c := range e.Corners {
+		if c.Kind == CornerFinite && c.At.Y == 0 {
+			vals = append(vals, c.Value)
+		}
+	}
+	t.Logf("%d panels: exit gradient %.6f at (%g, %g); corners %v; heave %+v", len(s.sol.Mesh.Panels), e.Value, e.At.X, e.At.Y, vals, s.rep.Heave)
+	if len(vals) != 2 || relErr(vals[0], vals[1]) > 1e-9 || !(vals[0] > 0) {
+		t.Fatalf("finite corners of the excavation %v, want two equal values", vals)
+	}
+	if len(s.rep.Heave) != 2 || relErr(s.rep.Heave[0].Safety, s.rep.Heave[1].Safety) > 1e-9 {
+		t.Errorf("heave checks %+v, want two equal ones", s.rep.Heave)
+	}
+	l, r := s.structure(t, "left wall"), s.structure(t, "right wall")
+	if relErr(l.Uplift, r.Uplift) > 1e-9 || math.Abs(l.UpliftX+r.UpliftX) > 1e-9 {
+		t.Errorf("walls' uplift %v at %v and %v at %v", l.Uplift, l.UpliftX, r.Uplift, r.UpliftX)
+	}
+}

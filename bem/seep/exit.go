@@ -7,6 +7,7 @@ import (
 
 	"github.com/rimfield/rimfield/bem/job"
 	"github.com/rimfield/rimfield/geom"
+	"github.com/rimfield/rimfield/mesh"
 	"gonum.org/v1/gonum/integrate/quad"
 	"gonum.org/v1/gonum/spatial/r2"
 )
@@ -546,8 +547,15 @@ func (a *analysis) freeRadius(w wedge, t isoFrame, V, d0, d1 r2.Vec, beta float6
 	n2 := r2.Sub(r2.Scale(math.Sin(beta), d0), r2.Scale(math.Cos(beta), d1))
 	best := math.Inf(1)
 	tol := 1e-9 * a.lay.Diagonal
+	// The back of a face of zero thickness (a sheet drawn as a line) lies
+	// on the face itself, running the other way: not inside the wedge.
+	backOf := func(p mesh.Panel, face int) bool {
+		f := a.m.Panels[face]
+		return r2.Dot(p.Tangent(), f.Tangent()) < -1+1e-9 &&
+			math.Abs(r2.Cross(r2.Sub(p.A, w.v), f.Tangent())) <= tol && math.Abs(r2.Cross(r2.Sub(p.B, w.v), f.Tangent())) <= tol
+	}
 	for j, p := range a.m.Panels {
-		if onFace[j] {
+		if onFace[j] || backOf(p, w.exit) || backOf(p, w.next) {
 			continue
 		}
 		A, B := t.to(p.A), t.to(p.B)
