@@ -32,6 +32,18 @@ const CoincidenceTol = 1e-9
 //     background);
 //   - anything else (between two bodies, inside one region): dropped.
 //
+// A sheet (a body drawn as lines, of zero thickness) is split like any
+// other line and encloses nothing. Each of its stretches gives one
+// boundary piece per face that has domain in front of it, with the domain
+// on its left and the sheet's condition: a sheet inside a region gives two
+// pieces with that region on both (Layout.Twin pairs them), a sheet along
+// an interface one in each region, a sheet along a region's outer
+// boundary or a body's side one (it sets the condition there), a sheet
+// inside a body none. A sheet may end on any boundary or cross other
+// sheets; an edge along a sheet and a sheet along the grounded plane are
+// refused, and a conductor sheet touching another conductor or an edge at
+// another potential is a short circuit like any body.
+//
 // Users never cut notches: bodies may overlap regions, sit on their edges and
 // stick out of them, and touching regions need not share vertices.
 //
@@ -63,12 +75,14 @@ const (
 	srcEdge
 )
 
-// source is one ring of a body or region polygon, or one edge line.
+// source is one ring of a body or region polygon, one line of a sheet
+// body, or one edge line.
 type source struct {
-	kind srcKind
-	feat int  // index into Scene.Bodies, Scene.Regions or Scene.Edges
-	poly int  // index into arrangement.polys; -1 for an edge line
-	hole bool // a hole of its polygon (a ring after the first)
+	kind  srcKind
+	feat  int  // index into Scene.Bodies, Scene.Regions or Scene.Edges
+	poly  int  // index into arrangement.polys; -1 for an edge or sheet line
+	hole  bool // a hole of its polygon (a ring after the first)
+	sheet bool // a line of a sheet body (kind srcBody, poly -1)
 }
 
 // polyRef is one polygon of a body or region.
@@ -139,12 +153,29 @@ func (s *Scene) arrange() (*arrangement, error) {
 		}
 		return nil
 	}
+	checkLine := func(kind srcKind, feat int, l Line) error {
+		if len(l) < 2 {
+			return s.featErr(kind, feat, "a line has fewer than 2 points")
+		}
+		for _, p := range l {
+			if !finite(p) {
+				return s.featErr(kind, feat, "a coordinate is not a finite number")
+			}
+			grow(p)
+		}
+		return nil
+	}
 	for i, b := range s.Bodies {
 		for _, pg := range b.Polygons {
 			for _, r := range pg {
 				if err := checkRing(srcBody, i, r); err != nil {
 					return nil, err
 				}
+			}
+		}
+		for _, l := range b.Lines {
+			if err := checkLine(srcBody, i, l); err != nil {
+				return nil, err
 			}
 		}
 	}
@@ -159,14 +190,8 @@ func (s *Scene) arrange() (*arrangement, error) {
 	}
 	for i, e := range s.Edges {
 		for _, l := range e.Lines {
-			if len(l) < 2 {
-				return nil, s.featErr(srcEdge, i, "a line has fewer than 2 points")
-			}
-			for _, p := range l {
-				if !finite(p) {
-					return nil, s.featErr(srcEdge, i, "a coordinate is not a finite number")
-				}
-				grow(p)
+			if err := checkLine(srcEdge, i, l); err != nil {
+				return nil, err
 			}
 		}
 	}
@@ -210,20 +235,24 @@ func (s *Scene) arrange() (*arrangement, error) {
 			g := len(a.polys)
 			a.polys = append(a.polys, polyRef{kind, i})
 			for k, r := range pg {
-				a.sources = append(a.sources, source{kind, i, g, k > 0})
+				a.sources = append(a.sources, source{kind: kind, feat: i, poly: g, hole: k > 0})
 				addRing(int32(len(a.sources)-1), r, true)
 			}
 		}
 	}
 	for i, b := range s.Bodies {
 		addPolygons(srcBody, i, b.Polygons)
+		for _, l := range b.Lines {
+			a.sources = append(a.sources, source{kind: srcBody, feat: i, poly: -1, sheet: true})
+			addRing(int32(len(a.sources)-1), l, false)
+		}
 	}
 	for i, rg := range s.Regions {
 		addPolygons(srcRegion, i, rg.Polygons)
 	}
 	for i, e := range s.Edges {
 		for _, l := range e.Lines {
-			a.sources = append(a.sources, source{srcEdge, i, -1, false})
+			a.sources = append(a.sources, source{kind: srcEdge, feat: i, poly: -1})
 			addRing(int32(len(a.sources)-1), l, false)
 		}
 	}
@@ -302,22 +331,29 @@ func (a *arrangement) checkGround() error {
 		return nil
 	}
 	for i, b := range s.Bodies {
+		rings := make([][]r2.Vec, 0, len(b.Polygons)+len(b.Lines))
 		for _, pg := range b.Polygons {
 			for _, r := range pg {
-				if err := below(srcBody, i, r); err != nil {
-					return err
+				rings = append(rings, r)
+			}
+		}
+		for _, l := range b.Lines {
+			rings = append(rings, l)
+		}
+		for _, r := range rings {
+			if err := below(srcBody, i, r); err != nil {
+				return err
+			}
+			// A conductor resting on the grounded plane is at 0.
+			for _, p := range r {
+				if p.Y > y+a.tol {
+					continue
 				}
-				// A conductor resting on the grounded plane is at 0.
-				for _, p := range r {
-					if p.Y > y+a.tol {
-						continue
-					}
-					switch c := b.Cond; {
-					case c.Kind == Potential && c.Value != 0:
-						return s.featErr(srcBody, i, fmt.Sprintf("touches the grounded plane y = %s m at %s but is held at %s%s: a short circuit; lift it off the ground or give it the potential 0", fmtNum(y), a.where(p), fmtNum(c.Value), s.potUnit()))
-					case c.Kind == Floating:
-						return s.featErr(srcBody, i, fmt.Sprintf("is floating and touches the grounded plane y = %s m at %s, which holds it at 0: lift it off the ground or give it the potential 0", fmtNum(y), a.where(p)))
-					}
+				switch c := b.Cond; {
+				case c.Kind == Potential && c.Value != 0:
+					return s.featErr(srcBody, i, fmt.Sprintf("touches the grounded plane y = %s m at %s but is held at %s%s: a short circuit; lift it off the ground or give it the potential 0", fmtNum(y), a.where(p), fmtNum(c.Value), s.potUnit()))
+				case c.Kind == Floating:
+					return s.featErr(srcBody, i, fmt.Sprintf("is floating and touches the grounded plane y = %s m at %s, which holds it at 0: lift it off the ground or give it the potential 0", fmtNum(y), a.where(p)))
 				}
 			}
 		}

@@ -12,10 +12,12 @@ import (
 // cross-feature checks, one piece per sub-segment that bounds the domain or
 // separates two regions, and the order of the pieces.
 
-// rawPiece is a piece with its vertex ids, for chaining.
+// rawPiece is a piece with its vertex ids, for chaining, and the index of
+// its twin (the other face of a sheet) among the raw pieces, or -1.
 type rawPiece struct {
 	Piece
 	va, vb int32
+	twin   int
 }
 
 func (a *arrangement) mid(sg *subSeg) r2.Vec {
@@ -75,11 +77,11 @@ func (a *arrangement) layout() (*Layout, error) {
 	edgeOn := make([]bool, len(s.Edges))  // some part of the edge bounds the domain
 	bodyOn := make([]bool, len(s.Bodies)) // the body carries some piece
 	bodyIn := make([]bool, len(s.Bodies)) // some side of the body\'s rings is in a region
-	var edges []int                       // scratch
+	var edges, sheets []int               // scratch
 	anyDomain := false
 	for i := range a.subs {
 		sg := &a.subs[i]
-		edges = edges[:0]
+		edges, sheets = edges[:0], sheets[:0]
 		inRegion := len(sg.sides[0].regions) > 0 || len(sg.sides[1].regions) > 0
 		for _, c := range sg.contribs {
 			switch src := a.sources[c.src]; src.kind {
@@ -87,12 +89,31 @@ func (a *arrangement) layout() (*Layout, error) {
 				edges = appendSet(edges, src.feat)
 			case srcBody:
 				bodyIn[src.feat] = bodyIn[src.feat] || inRegion
+				if src.sheet {
+					sheets = appendSet(sheets, src.feat)
+				}
 			}
 		}
 		if len(edges) > 1 {
 			return nil, s.featErr(srcEdge, edges[0], fmt.Sprintf("overlaps %s near %s; a stretch of boundary takes one condition: shorten one of the two edges", s.featRef(srcEdge, edges[1]), a.where(a.mid(sg))))
 		}
 		dl, dr := a.domain(sg.sides[0]), a.domain(sg.sides[1])
+		if len(sheets) > 0 {
+			slices.Sort(sheets)
+			ps, err := a.sheetPieces(sg, sheets, edges, dl, dr)
+			if err != nil {
+				return nil, err
+			}
+			if len(ps) > 0 {
+				anyDomain = true
+				bodyOn[sheets[0]] = true
+			}
+			if len(ps) == 2 {
+				ps[0].twin, ps[1].twin = len(pieces)+1, len(pieces)
+			}
+			pieces = append(pieces, ps...)
+			continue
+		}
 		ground := false
 		if below, ok := a.onGround(sg); ok {
 			// Below the grounded plane is not domain; a region resting on
@@ -121,7 +142,7 @@ func (a *arrangement) layout() (*Layout, error) {
 			if rl > rr { // interfaces run with the lower region index on the left
 				A, B, va, vb, rl, rr = B, A, vb, va, rr, rl
 			}
-			pieces = append(pieces, rawPiece{Piece{A: A, B: B, Left: rl, Right: rr, Owner: -1}, va, vb})
+			pieces = append(pieces, rawPiece{Piece{A: A, B: B, Left: rl, Right: rr, Owner: -1}, va, vb, -1})
 			continue
 		}
 		// A boundary piece: domain on the left.
@@ -154,7 +175,7 @@ func (a *arrangement) layout() (*Layout, error) {
 			p.Cond = s.Bodies[b].Cond
 			bodyOn[b] = true
 		}
-		pieces = append(pieces, rawPiece{p, va, vb})
+		pieces = append(pieces, rawPiece{p, va, vb, -1})
 	}
 	if !anyDomain {
 		msg := "the domain is empty: the bodies cover every region; a body is not part of the domain, so draw the material around it as a region"
@@ -177,8 +198,10 @@ func (a *arrangement) layout() (*Layout, error) {
 			return nil, s.featErr(srcBody, i, "is floating but other bodies cover it entirely, so it has no boundary with the domain; delete it or give it a fixed potential")
 		}
 	}
+	ordered, twins := orderPieces(pieces)
 	lay := &Layout{
-		Pieces:   orderPieces(pieces),
+		Pieces:   ordered,
+		Twin:     twins,
 		Open:     s.Problem.Open,
 		Ground:   s.Problem.Ground,
 		Diagonal: a.diag,
@@ -449,8 +472,10 @@ func (a *arrangement) contact(i, j int, p r2.Vec) string {
 // interfaces by pair of regions) and orders each group along its chains:
 // each chain starts at a piece no other piece of the group leads into, or,
 // for closed loops, at the first remaining piece; at a branch the first
-// piece in arrangement order is taken.
-func orderPieces(ps []rawPiece) []Piece {
+// piece in arrangement order is taken. It returns the pieces and, when some
+// piece has a twin, the twin of each ordered piece (-1: none); nil when
+// none has.
+func orderPieces(ps []rawPiece) ([]Piece, []int) {
 	type key struct{ class, owner, left, right int }
 	keyOf := func(p Piece) key {
 		switch {
@@ -475,6 +500,7 @@ func orderPieces(ps []rawPiece) []Piece {
 		return 0
 	})
 	out := make([]Piece, 0, len(ps))
+	at := make([]int, len(ps)) // raw index -> ordered index
 	used := make([]bool, len(ps))
 	for g := 0; g < len(idx); {
 		h := g
@@ -491,6 +517,7 @@ func orderPieces(ps []rawPiece) []Piece {
 		walk := func(i int) {
 			for i >= 0 {
 				used[i] = true
+				at[i] = len(out)
 				out = append(out, ps[i].Piece)
 				next := -1
 				for _, j := range from[ps[i].vb] {
@@ -514,5 +541,18 @@ func orderPieces(ps []rawPiece) []Piece {
 		}
 		g = h
 	}
-	return out
+	var twins []int
+	for i, p := range ps {
+		if p.twin < 0 {
+			continue
+		}
+		if twins == nil {
+			twins = make([]int, len(out))
+			for k := range twins {
+				twins[k] = -1
+			}
+		}
+		twins[at[i]] = at[p.twin]
+	}
+	return out, twins
 }

@@ -35,6 +35,12 @@
 // counter-clockwise (outer) or clockwise (holes); edge lines keep their
 // vertices and direction as given.
 //
+// A body drawn as a LineString or MultiLineString is a sheet of zero
+// thickness (Body.Lines) whose two faces both carry its condition. Its
+// lines are checked like an edge's, and besides refused with a zero-length
+// segment, a segment doubling back over the one before, or a stretch run
+// over twice.
+//
 // The first problem found is returned as an *Error naming the feature
 // (index and name), the member and the fix. Property keys Read does not know
 // give a warning in Scene.Warnings, since GIS tools add their own, unless

@@ -108,8 +108,28 @@ func readFuzzCheck(t *testing.T, sc *Scene) {
 			t.Fatalf("%s: condition %+v", name, c)
 		}
 	}
+	lines := func(what string, ls []Line) {
+		if len(ls) == 0 {
+			t.Fatalf("%s without lines", what)
+		}
+		for _, l := range ls {
+			if len(l) < 2 {
+				t.Fatalf("%s line of %d positions", what, len(l))
+			}
+			for _, v := range l {
+				point(v.X, v.Y)
+			}
+		}
+	}
 	for _, b := range sc.Bodies {
-		polys(b.Name, b.Polygons)
+		if b.Sheet() {
+			if len(b.Polygons) > 0 {
+				t.Fatalf("sheet %s has polygons too", b.Name)
+			}
+			lines("sheet "+b.Name, b.Lines)
+		} else {
+			polys(b.Name, b.Polygons)
+		}
 		owner(b.Name, b.Cond)
 		if p.Physics == Flow && b.Cond != Insulated {
 			t.Fatalf("flow body %s with condition %+v", b.Name, b.Cond)
@@ -122,17 +142,7 @@ func readFuzzCheck(t *testing.T, sc *Scene) {
 	}
 	for _, e := range sc.Edges {
 		owner(e.Name, e.Cond)
-		if len(e.Lines) == 0 {
-			t.Fatalf("edge %s without lines", e.Name)
-		}
-		for _, l := range e.Lines {
-			if len(l) < 2 {
-				t.Fatalf("edge %s line of %d positions", e.Name, len(l))
-			}
-			for _, v := range l {
-				point(v.X, v.Y)
-			}
-		}
+		lines("edge "+e.Name, e.Lines)
 	}
 }
 

@@ -86,4 +86,23 @@ type Layout struct {
 	// Warnings are what the arrangement noticed that is allowed but may not
 	// be meant (a region's hole that nothing fills), one sentence each.
 	Warnings []string
+	// Twin pairs the two faces of a sheet (a body of zero thickness): when
+	// not nil it has one entry per piece, the index of the piece that is
+	// the same stretch seen from the other side (its A and B swapped, the
+	// same owner and condition), or -1. Both faces of a sheet segment
+	// inside the domain are pieces, each with the domain on its Left (the
+	// same region on both faces inside a region; the two regions of an
+	// interface along which the sheet runs). A sheet face with no domain
+	// behind it (a sheet along a region's outer boundary or a body's side)
+	// is an ordinary boundary piece without a twin. nil when no piece has
+	// a twin.
+	Twin []int
+}
+
+// TwinOf returns the index of piece i's twin, or -1.
+func (l *Layout) TwinOf(i int) int {
+	if l.Twin == nil {
+		return -1
+	}
+	return l.Twin[i]
 }

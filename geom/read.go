@@ -145,6 +145,8 @@ type readFeature struct {
 	// shaped geometry
 	polygons []Polygon
 	shaped   []Line
+	// sheet: a body drawn as lines (shaped holds them).
+	sheet bool
 
 	cond      Condition
 	kutta     *Kutta
@@ -420,7 +422,7 @@ func (rd *sceneReader) precheck(i int, raw json.RawMessage) error {
 	depth, known := readDepth[gt]
 	switch {
 	case gt == "GeometryCollection":
-		return rd.errf(i, name, "geometry", "a GeometryCollection is not supported; use a Polygon or MultiPolygon for a body or region, a LineString or MultiLineString for an edge")
+		return rd.errf(i, name, "geometry", "a GeometryCollection is not supported; use a Polygon or MultiPolygon for a body or region, a LineString or MultiLineString for an edge or a sheet body")
 	case gm["type"] == nil:
 		return rd.errf(i, name, "geometry", `has no "type"; add "type": "Polygon" (or MultiPolygon, LineString, MultiLineString)`)
 	case !known:
@@ -1245,6 +1247,8 @@ func (rd *sceneReader) positions(rf *readFeature, g orb.Geometry, ef func(string
 		typ = g.GeoJSONType()
 	}
 	switch {
+	case g == nil && rf.part == PartBody:
+		return ef("geometry", "missing; a body needs a Polygon or MultiPolygon geometry (a solid), or a LineString or MultiLineString (a sheet of zero thickness)")
 	case g == nil && polyPart:
 		return ef("geometry", "missing; %s needs a Polygon or MultiPolygon geometry", readArticle(rf.part))
 	case g == nil:
@@ -1264,14 +1268,19 @@ func (rd *sceneReader) positions(rf *readFeature, g orb.Geometry, ef func(string
 		lines = g
 		rf.multi = true
 	}
+	// A body drawn as lines is a sheet: zero thickness, its condition on
+	// both faces.
+	rf.sheet = rf.part == PartBody && lines != nil
 	switch {
-	case polyPart && polys == nil:
+	case rf.part == PartBody && polys == nil && lines == nil:
+		return ef("geometry", "a body must be a Polygon or MultiPolygon (a solid) or a LineString or MultiLineString (a sheet of zero thickness), got %s; points carry no boundary: draw the body's outline or its line", typ)
+	case rf.part == PartRegion && polys == nil:
 		hint := "points carry no boundary: draw the outline as a Polygon"
 		if lines != nil {
-			hint = "close the line into a Polygon ring, or make the feature an edge"
+			hint = "a region is material with an area: close the line into a Polygon ring; a line inside the domain with its own condition is a body (a sheet)"
 		}
 		return ef("geometry", "%s must be a Polygon or MultiPolygon, got %s; %s", readArticle(rf.part), typ, hint)
-	case !polyPart && lines == nil:
+	case rf.part == PartEdge && lines == nil:
 		hint := "points carry no boundary: draw the stretch as a LineString"
 		if polys != nil {
 			hint = "write the ring as a closed LineString, or put the condition on the body itself"
@@ -1438,6 +1447,11 @@ func (rd *sceneReader) shape(rf *readFeature) error {
 		if len(raw) == 0 {
 			return ef("%s is empty; remove it or give its positions", what)
 		}
+		if rf.sheet {
+			if err := rd.sheetSegments(raw, what, ef); err != nil {
+				return err
+			}
+		}
 		closed := len(raw) > 2 && r2.Norm(r2.Sub(raw[0], raw[len(raw)-1])) <= tol
 		line := readDedupe(raw, tol)
 		if closed {
@@ -1447,9 +1461,14 @@ func (rd *sceneReader) shape(rf *readFeature) error {
 			}
 			line = append(line, line[0])
 		} else if len(line) < 2 {
-			return ef("%s has no length (all its positions coincide); an edge needs at least 2 distinct positions", what)
+			return ef("%s has no length (all its positions coincide); %s needs at least 2 distinct positions", what, readArticle(rf.part))
 		}
 		rf.shaped = append(rf.shaped, Line(line))
+	}
+	if rf.sheet {
+		if c, found := readSheetOverlap(rf.shaped, tol); found {
+			return ef("the sheet overlaps itself along %s (%s and %s run over the same stretch); a sheet's faces would coincide there: remove the repeated stretch", rd.pointFmt(c.at), c.a, c.b)
+		}
 	}
 	return nil
 }
@@ -1646,7 +1665,7 @@ func (rd *sceneReader) finish() error {
 	for _, rf := range rd.feats {
 		switch rf.part {
 		case PartBody:
-			sc.Bodies = append(sc.Bodies, Body{Feature: rf.index, Name: rf.name, Polygons: rf.polygons, Cond: rf.cond, Kutta: rf.kutta})
+			sc.Bodies = append(sc.Bodies, Body{Feature: rf.index, Name: rf.name, Polygons: rf.polygons, Lines: rf.sheetLines(), Cond: rf.cond, Kutta: rf.kutta})
 		case PartRegion:
 			regions++
 			sc.Regions = append(sc.Regions, Region{Feature: rf.index, Name: rf.name, Polygons: rf.polygons,

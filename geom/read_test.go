@@ -287,7 +287,6 @@ var readBadCases = []struct {
 }{
 	{"array", -1, "", "JSON array"},
 	{"background_k_in_electrostatic", -1, "problem.background_k", "background_permittivity"},
-	{"body_linestring", 3, "geometry", "Polygon or MultiPolygon, got LineString"},
 	{"bowtie", 3, "coordinates", "crosses or touches itself near (3, 3)"},
 	{"breakdown_negative", 1, "breakdown_field", "must be positive"},
 	{"closed_without_region", -1, "problem.open", `add a region, or set "open": true`},
@@ -368,6 +367,15 @@ var readBadCases = []struct {
 	{"two_conditions", 2, "flux", `"potential" and "flux" are both set`},
 	{"two_vertex_ring", 3, "coordinates", "only 2 distinct vertices"},
 	{"short_body_edge", 1, "geometry", `touches or crosses edge 2 ("case")`},
+	{"region_linestring", 0, "geometry", "a region must be a Polygon or MultiPolygon, got LineString"},
+	{"sheet_along_edge", 3, "geometry", `is a sheet, and edge 1 ("upstream bed") runs along it`},
+	{"sheet_no_length", 2, "coordinates", "has no length (all its positions coincide"},
+	{"sheet_on_ground", 1, "geometry", "is a sheet lying along the grounded plane"},
+	{"sheet_self_overlap", 2, "coordinates", "the sheet overlaps itself along (4, 5)"},
+	{"sheet_short_body", 0, "geometry", `touches or overlaps body 1 ("probe")`},
+	{"sheet_short_edge", 2, "geometry", `is held at 5 V and touches or crosses edge 1 ("case"), held at 0 V`},
+	{"sheet_spike", 2, "coordinates", "doubles back on itself at (8, 5)"},
+	{"sheet_zero_segment", 2, "coordinates", "zero-length segment: positions 1 and 2 coincide at (5, 8)"},
 	{"unclosed_ring", 0, "coordinates", "not closed"},
 	{"unknown_part", 1, "part", `unknown part "conductor"`},
 	{"unknown_physics", -1, "problem.physics", `did you mean "electrostatic"?`},
@@ -792,7 +800,7 @@ func readTestSame(t *testing.T, what string, a, b *Scene) {
 	}
 	for i := range a.Bodies {
 		x, y := a.Bodies[i], b.Bodies[i]
-		if x.Name != y.Name || x.Feature != y.Feature || x.Cond != y.Cond || !samePolys(x.Polygons, y.Polygons) ||
+		if x.Name != y.Name || x.Feature != y.Feature || x.Cond != y.Cond || !samePolys(x.Polygons, y.Polygons) || !readTestSameLines(x.Lines, y.Lines) ||
 			(x.Kutta == nil) != (y.Kutta == nil) || x.Kutta != nil && (x.Kutta.Auto != y.Kutta.Auto || !readTestSameVecs([]r2.Vec{x.Kutta.Point}, []r2.Vec{y.Kutta.Point})) {
 			t.Errorf("%s: body %d %+v, read back %+v", what, i, x, y)
 		}

@@ -95,13 +95,19 @@ type Polygon []Ring
 // Line is an open or closed polyline in metres (closed: first == last).
 type Line []r2.Vec
 
-// Body is a feature with part "body": not part of the domain.
+// Body is a feature with part "body": not part of the domain. A body is
+// a solid (Polygons) or a sheet of zero thickness (Lines: a trace, a thin
+// electrode, a sheet pile, a baffle, a plate or a sail), whose two faces
+// both carry its condition; never both.
 type Body struct {
 	Feature  int // index of the feature in the file
 	Name     string
 	Polygons []Polygon
-	Cond     Condition // Insulated when the body sets none (every body is a wall in Flow)
-	Kutta    *Kutta    // flow only: the circulation is fixed by the Kutta condition
+	// Lines are the lines of a sheet, as for an edge (closed: first ==
+	// last); nil for a solid.
+	Lines []Line
+	Cond  Condition // Insulated when the body sets none (every body is a wall in Flow)
+	Kutta *Kutta    // flow only: the circulation is fixed by the Kutta condition
 }
 
 // Kutta asks for the Kutta condition at a trailing edge.

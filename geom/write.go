@@ -163,7 +163,11 @@ func Write(w io.Writer, sc *Scene) error {
 				props["kutta"] = []float64{q[0], q[1]}
 			}
 		}
-		if err := add(b.Feature, b.Name, polys(b.Polygons), props); err != nil {
+		g := polys(b.Polygons)
+		if b.Sheet() {
+			g = lines(b.Lines)
+		}
+		if err := add(b.Feature, b.Name, g, props); err != nil {
 			return err
 		}
 	}
