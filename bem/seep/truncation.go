@@ -230,15 +230,19 @@ func Truncate(sc *geom.Scene, lay *geom.Layout, factor float64) (*geom.Scene, []
 	for i := range out.Regions {
 		mapPolygons(out.Regions[i].Polygons, mapX, mapY)
 	}
-	for i := range out.Bodies {
-		mapPolygons(out.Bodies[i].Polygons, mapX, mapY)
-	}
-	for i := range out.Edges {
-		for _, l := range out.Edges[i].Lines {
+	mapLines := func(ls []geom.Line) {
+		for _, l := range ls {
 			for k := range l {
 				l[k].X, l[k].Y = mapX(l[k].X), mapY(l[k].Y)
 			}
 		}
+	}
+	for i := range out.Bodies {
+		mapPolygons(out.Bodies[i].Polygons, mapX, mapY)
+		mapLines(out.Bodies[i].Lines)
+	}
+	for i := range out.Edges {
+		mapLines(out.Edges[i].Lines)
 	}
 	return out, walls, nil
 }
@@ -261,6 +265,11 @@ func eachVertex(sc *geom.Scene, f func(x, y float64)) {
 				for _, v := range ring {
 					f(v.X, v.Y)
 				}
+			}
+		}
+		for _, l := range b.Lines {
+			for _, v := range l {
+				f(v.X, v.Y)
 			}
 		}
 	}
@@ -296,15 +305,23 @@ func copyScene(sc *geom.Scene) *geom.Scene {
 	}
 	for i := range out.Bodies {
 		out.Bodies[i].Polygons = copyPolygons(sc.Bodies[i].Polygons)
+		out.Bodies[i].Lines = copyLines(sc.Bodies[i].Lines)
 	}
 	for i := range out.Edges {
-		ls := make([]geom.Line, len(sc.Edges[i].Lines))
-		for k, l := range sc.Edges[i].Lines {
-			ls[k] = append(geom.Line(nil), l...)
-		}
-		out.Edges[i].Lines = ls
+		out.Edges[i].Lines = copyLines(sc.Edges[i].Lines)
 	}
 	return &out
+}
+
+func copyLines(ls []geom.Line) []geom.Line {
+	if ls == nil {
+		return nil
+	}
+	out := make([]geom.Line, len(ls))
+	for k, l := range ls {
+		out[k] = append(geom.Line(nil), l...)
+	}
+	return out
 }
 
 func copyPolygons(pgs []geom.Polygon) []geom.Polygon {

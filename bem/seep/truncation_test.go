@@ -53,6 +53,24 @@ func TestTruncateGeometry(t *testing.T) {
 	if _, err := out.Layout(); err != nil {
 		t.Errorf("moved section: %v", err)
 	}
+	// A sheet pile drawn as a line (zero thickness) at x = 20, deeper than
+	// the layer boundary: it is part of the core, so only the soil beyond
+	// it (x > 20: the right wall goes to 20 + 2 * 10) and below its tip
+	// (y < -8: the bottom goes to -8 - 2 * 4) stretches, and the copy has
+	// lines of its own.
+	sec.sc.Bodies = append(sec.sc.Bodies, geom.Body{Feature: sec.feature(), Name: "sheet", Lines: []geom.Line{line(20, 0.5, 20, -8)}, Cond: geom.Insulated})
+	if lay, err = sec.sc.Layout(); err != nil {
+		t.Fatal(err)
+	}
+	if out, _, err = Truncate(&sec.sc, lay, 2); err != nil {
+		t.Fatal(err)
+	}
+	if got := out.Regions[1].Polygons[0][0]; !sameRing(got, rect(-55, -16, 40, -4)) {
+		t.Errorf("lower layer with the sheet: %v, want %v", got, rect(-55, -16, 40, -4))
+	}
+	if got := out.Bodies[1].Lines[0]; got[1].Y != -8 || &got[0] == &sec.sc.Bodies[1].Lines[0][0] {
+		t.Errorf("sheet %v (or shared with the input)", got)
+	}
 }
 
 func sameRing(a, b geom.Ring) bool {
