@@ -96,10 +96,12 @@ type Report struct {
 	// Heave is Terzaghi's check of the soil prism beside every structure
 	// that reaches below an exit face at its edge.
 	Heave []Heave
-	// Creep is Lane's weighted creep check along the contact of the
-	// structures with the soil; nil without a structure touching a bed or
-	// without a head difference.
-	Creep *Creep
+	// Creeps is Lane's weighted creep check along the contact of every
+	// structure (bodies that touch one another) that touches fixed heads
+	// that differ, in the order of the layout's owners; Creep is the one
+	// with the smallest ratio, nil when there is none.
+	Creeps []Creep
+	Creep  *Creep
 	// Warnings, one sentence each, name the boundary and place it in the
 	// scene's unit.
 	Warnings []string
@@ -147,7 +149,12 @@ func Analyse(sc *geom.Scene, sys *bem.System, sol *bem.Solution, o Options) (*Re
 		rep.PipingSafety = a.ic / g.Value
 	}
 	rep.Heave = a.heave(rep.Exits)
-	rep.Creep = a.creep()
+	rep.Creeps = a.creep()
+	for i := range rep.Creeps {
+		if c := &rep.Creeps[i]; rep.Creep == nil || c.Ratio < rep.Creep.Ratio {
+			rep.Creep = c
+		}
+	}
 	a.warn(rep)
 	return rep, nil
 }
@@ -321,9 +328,11 @@ func (a *analysis) warn(rep *Report) {
 				h.Structure, h.Safety, a.length(h.Depth), a.where(h.Corner), h.ExcessHead, a.o.HeaveSafety))
 		}
 	}
-	if c := rep.Creep; c != nil && c.Required > 0 && c.Ratio < c.Required {
-		rep.Warnings = append(rep.Warnings, fmt.Sprintf(
-			"Lane's weighted creep ratio %.3g is below %.3g, the safe ratio for %s",
-			c.Ratio, c.Required, a.o.Soil))
+	for _, c := range rep.Creeps {
+		if c.Required > 0 && c.Ratio < c.Required {
+			rep.Warnings = append(rep.Warnings, fmt.Sprintf(
+				"Lane's weighted creep ratio along %q is %.3g, below %.3g, the safe ratio for %s",
+				c.Structures, c.Ratio, c.Required, a.o.Soil))
+		}
 	}
 }

@@ -44,7 +44,7 @@ func TestWedgeExponent(t *testing.T) {
 // (observed 1e-4).
 func TestSingularToeAverage(t *testing.T) {
 	const b, H, L = 10.0, 3.0, 200.0
-	sec := newSection().
+	sec := newTestSection().
 		soil("sand", 1e-5, 1e-5, rect(-b/2-L, -L, b/2+L, 0)).
 		body("floor", rect(-b/2, 0, b/2, 1)).
 		bed("upstream bed", H, line(-b/2-L, 0, -b/2, 0)).
@@ -95,7 +95,7 @@ func TestCornerKinds(t *testing.T) {
 		{"overhang", geom.Ring{{X: -5, Y: -2}, {X: 3, Y: -2}, {X: 5, Y: 0}, {X: 5, Y: 1}, {X: -5, Y: 1}}, CornerSingular, 2.0 / 3},
 		{"batter", geom.Ring{{X: -5, Y: -2}, {X: 7, Y: -2}, {X: 5, Y: 0}, {X: 5, Y: 1}, {X: -5, Y: 1}}, CornerVanishing, 2},
 	} {
-		s := newSection().
+		s := newTestSection().
 			soil("sand", 1e-5, 1e-5, rect(-40, -20, 40, 0)).
 			body("weir", c.toe).
 			bed("upstream bed", 2, line(-40, 0, -5, 0)).
@@ -168,11 +168,12 @@ var sinkReport *Report
 // floor at both piles, one corner with the soil clockwise of the floor's
 // direction, the other counter-clockwise: by symmetry the two corner
 // values, the two heave checks and the two walls' uplifts must agree
-// (observed to 1e-9 relative; the mesh is symmetric to rounding).
+// (observed to 1e-9 relative; the mesh is symmetric to rounding), and
+// each wall is a seepage path of its own for Lane's check (exact lengths).
 func TestCofferdamSymmetry(t *testing.T) {
 	const w, d, gap = 0.5, 6.0, 8.0
 	x1, x2 := gap/2, gap/2+w
-	s := newSection().
+	s := newTestSection().
 		soil("sand", 1e-5, 1e-5, rect(-60, -15, 60, 0)).
 		body("left wall", rect(-x2, -d, -x1, 1)).
 		body("right wall", rect(x1, -d, x2, 1)).
@@ -193,6 +194,15 @@ func TestCofferdamSymmetry(t *testing.T) {
 	}
 	if len(s.rep.Heave) != 2 || relErr(s.rep.Heave[0].Safety, s.rep.Heave[1].Safety) > 1e-9 {
 		t.Errorf("heave checks %+v, want two equal ones", s.rep.Heave)
+	}
+	// Two structures, each its own seepage path: Lw = 2 d + w/3 under 4 m.
+	if len(s.rep.Creeps) != 2 {
+		t.Errorf("creep checks %+v, want one per wall", s.rep.Creeps)
+	}
+	for _, c := range s.rep.Creeps {
+		if math.Abs(c.Weighted-(2*d+w/3)) > 1e-9 || c.Head != 4 || len(c.Structures) != 1 {
+			t.Errorf("creep %+v, want Lw %g under 4 m", c, 2*d+w/3)
+		}
 	}
 	l, r := s.structure(t, "left wall"), s.structure(t, "right wall")
 	if relErr(l.Uplift, r.Uplift) > 1e-9 || math.Abs(l.UpliftX+r.UpliftX) > 1e-9 {

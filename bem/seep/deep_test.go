@@ -36,7 +36,7 @@ func TestKhoslaBoseTaylor(t *testing.T) {
 	var ges, es, ds []float64
 	var truncation float64
 	for i, w := range []float64{0.02, 0.04} {
-		sec := newSection().
+		sec := newTestSection().
 			soil("sand", k, k, rect(-b/2-L, -L, b/2+L, 0)).
 			body("weir", geom.Ring{{X: -b / 2, Y: 0}, {X: b/2 - w, Y: 0}, {X: b/2 - w, Y: -d}, {X: b / 2, Y: -d}, {X: b / 2, Y: 1}, {X: -b / 2, Y: 1}}).
 			bed("headwater bed", H, line(-b/2-L, 0, -b/2, 0)).

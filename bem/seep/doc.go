@@ -131,10 +131,12 @@
 //
 // Lane's weighted creep ratio (Lane, Security from under-seepage: masonry
 // dams on earth foundations, Trans. ASCE 100, 1935; from memory): along the
-// contact of the structures that touch a bed, Lw = (contact steeper than
-// 45 degrees) + (contact flatter than 45 degrees)/3, over H, the largest
-// difference of fixed heads; LaneRatios lists the safe ratios by soil. It
-// is an empirical cross-check, not a substitute for the exit gradient.
+// contact of each structure (the bodies that touch one another, such as a
+// floor and its cutoffs) that touches beds at different heads, Lw =
+// (contact steeper than 45 degrees) + (contact flatter than 45 degrees)/3,
+// over H, the difference of the heads it touches; LaneRatios lists the
+// safe ratios by soil. It is an empirical cross-check, not a substitute
+// for the exit gradient.
 //
 // # Truncated sections
 //

@@ -90,7 +90,7 @@ func TestFloorOnLayer(t *testing.T) {
 	for _, bT := range []float64{0.5, 1, 2, 4} {
 		b := bT * T
 		W := b/2 + 4*T
-		s := newSection().
+		s := newTestSection().
 			soil("sand", k, k, rect(-W, -T, W, 0)).
 			body("floor", rect(-b/2, 0, b/2, 1)).
 			bed("upstream bed", H, line(-W, 0, -b/2, 0)).

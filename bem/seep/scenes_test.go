@@ -33,7 +33,7 @@ func line(pts ...float64) geom.Line {
 // section collects the features of a test scene.
 type section struct{ sc geom.Scene }
 
-func newSection() *section {
+func newTestSection() *section {
 	return &section{sc: geom.Scene{Problem: geom.Problem{
 		Physics: geom.Seepage, Unit: "m", Scale: 1, UnitWeightWater: 9.81, CriticalGradient: 1,
 	}}}
@@ -127,7 +127,7 @@ func relErr(got, want float64) float64 { return math.Abs(got-want) / math.Abs(wa
 // pileLayer is a sheet pile of width w (m) driven d into a layer of depth
 // T, the section 2 W wide, head H upstream and 0 downstream; k = 1e-5 m/s.
 func pileLayer(W, T, d, w, H float64) *section {
-	return newSection().
+	return newTestSection().
 		soil("sand", 1e-5, 1e-5, rect(-W, -T, W, 0)).
 		body("pile", rect(-w/2, -d, w/2, 1)).
 		bed("upstream bed", H, line(-W, 0, -w/2, 0)).
@@ -140,7 +140,7 @@ func pileLayer(W, T, d, w, H float64) *section {
 // face is the soil's left wall from the bed to the tip. Its discharge is
 // that of the whole section; k = 1e-5 m/s unless kx, ky say otherwise.
 func halfPile(W, T, d, H, kx, ky float64) *section {
-	return newSection().
+	return newTestSection().
 		soil("sand", kx, ky, rect(0, -T, W, 0)).
 		body("pile", rect(-1, -d, 0, 1)).
 		bed("below the tip", H/2, line(0, -d, 0, -T)).

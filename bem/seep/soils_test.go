@@ -35,7 +35,7 @@ func TestAnisotropicTransformedSection(t *testing.T) {
 	// Floor of width 10 m on the 10 m layer: b'/T = 0.5 once transformed.
 	const b = 10.0
 	W := b/2 + 8*T
-	f := newSection().
+	f := newTestSection().
 		soil("clay", kx, ky, rect(-W, -T, W, 0)).
 		body("floor", rect(-b/2, 0, b/2, 0.5)).
 		bed("upstream bed", H, line(-W, 0, -b/2, 0)).
@@ -58,7 +58,7 @@ func TestAnisotropicTransformedSection(t *testing.T) {
 // 1e-5, exit gradient 1e-4).
 func TestTwoLayersInSeries(t *testing.T) {
 	const B, t1, t2, k1, k2, H = 20.0, 4.0, 2.0, 2e-5, 5e-6, 3.0
-	s := newSection().
+	s := newTestSection().
 		soil("sand", k1, k1, rect(0, -t1-t2, B, -t2)).
 		soil("silt", k2, k2, rect(0, -t2, B, 0)).
 		bed("artesian base", H, line(0, -t1-t2, B, -t1-t2)).
@@ -90,7 +90,7 @@ func TestTwoLayersInSeries(t *testing.T) {
 // to rounding.
 func TestHydrostaticUplift(t *testing.T) {
 	const b, gw = 6.0, 9.81
-	s := newSection().
+	s := newTestSection().
 		soil("sand", 1e-5, 1e-5, rect(-30, -10, 30, 0)).
 		body("block", rect(-b/2, -1, b/2, 2)).
 		bed("left bed", 3, line(-30, 0, -b/2, 0)).
@@ -153,10 +153,10 @@ func TestLaneCreep(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	c := rep.Creep
-	if c == nil {
-		t.Fatal("no creep check")
+	if len(rep.Creeps) != 1 || rep.Creep != &rep.Creeps[0] {
+		t.Fatalf("creep checks %+v, want one", rep.Creeps)
 	}
+	c := rep.Creep
 	lw := 2*d + w/3
 	if math.Abs(c.Vertical-2*d) > 1e-9 || math.Abs(c.Horizontal-w) > 1e-9 || math.Abs(c.Weighted-lw) > 1e-9 || math.Abs(c.Ratio-lw/H) > 1e-9 {
 		t.Errorf("creep %+v; want vertical %g, horizontal %g, Lw %g, ratio %g", *c, 2*d, w, lw, lw/H)

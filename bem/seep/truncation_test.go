@@ -15,7 +15,7 @@ import (
 // keeps its thickness and the lower one deepens. Exact: the geometry is
 // mapped piecewise linearly.
 func TestTruncateGeometry(t *testing.T) {
-	sec := newSection().
+	sec := newTestSection().
 		soil("upper", 1e-5, 1e-5, rect(-30, -4, 30, 0)).
 		soil("lower", 1e-6, 1e-6, rect(-30, -12, 30, -4)).
 		body("weir", rect(-5, -2, 5, 1)).
@@ -91,7 +91,7 @@ func sameRing(a, b geom.Ring) bool {
 // The moved section keeps the base mesh's nominal size.
 func TestTruncationStudy(t *testing.T) {
 	weir := func(L float64) *section {
-		return newSection().
+		return newTestSection().
 			soil("sand", 1e-5, 1e-5, rect(-10-L, -L, 10+L, 0)).
 			body("weir", geom.Ring{{X: -10, Y: 0}, {X: 9.9, Y: 0}, {X: 9.9, Y: -5}, {X: 10, Y: -5}, {X: 10, Y: 1}, {X: -10, Y: 1}}).
 			bed("headwater bed", 4, line(-10-L, 0, -10, 0)).

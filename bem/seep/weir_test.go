@@ -60,9 +60,9 @@ func TestWeirFromGeoJSON(t *testing.T) {
 	if len(r.Heave) != 0 {
 		t.Errorf("heave checks %+v at a toe without a cutoff", r.Heave)
 	}
-	c := r.Creep
-	if want := 2*5 + (0.2+7.8)/3; c == nil || math.Abs(c.Weighted-want) > 1e-9 || math.Abs(c.Head-H) > 1e-12 {
-		t.Errorf("creep %+v, want Lw %g, H %g", c, want, H)
+	// The floor and the pile touch: one structure.
+	if want := 2*5 + (0.2+7.8)/3; len(r.Creeps) != 1 || math.Abs(r.Creeps[0].Weighted-want) > 1e-9 || math.Abs(r.Creeps[0].Head-H) > 1e-12 || len(r.Creeps[0].Structures) != 2 {
+		t.Errorf("creep %+v, want one structure of two bodies, Lw %g, H %g", r.Creeps, want, H)
 	}
 	var found bool
 	for _, msg := range r.Warnings {
