@@ -60,6 +60,9 @@ type Map struct {
 	// means nothing (the equipotentials of a flow drawn over its stream
 	// function).
 	PlainLines bool
+	// Overlays are lines of the physics drawn over everything (the water
+	// levels of a seepage section above its beds), each named.
+	Overlays []Overlay
 	// Scene gives the bodies, regions and edges to draw (the scene's
 	// medium, its only region or the one that holds all the others, is not
 	// named), the coordinate
@@ -71,6 +74,13 @@ type Map struct {
 	Ground string
 	// Colors is the colour map; nil means Sequential.
 	Colors Colormap
+}
+
+// Overlay is a named line to draw over a map, in metres: a water level
+// (drawn in blue with the surveyor's triangle at its middle).
+type Overlay struct {
+	Points []r2.Vec
+	Label  string
 }
 
 // Marker is a point to show on a map.
@@ -235,6 +245,9 @@ func (m *Map) draw(c canvas, W, H float64) {
 		if f.win.Contains(mk.At) {
 			placed = append(placed, drawMarker(c, f, mk, st, placed)...)
 		}
+	}
+	for _, ov := range m.Overlays {
+		placed = append(placed, drawOverlay(c, f, ov, st, placed)...)
 	}
 	m.drawLabels(c, f, st, geo, placed)
 	drawAxes(c, f, st, unit, scale)
@@ -667,6 +680,9 @@ func (m *Map) drawLabels(c canvas, f frame, st style, geo clippedScene, placed [
 		tw, th := c.measure(e.name, st.small)
 		off := 0.5*(tw*math.Abs(nrm.X)+th*1.3*math.Abs(nrm.Y)) + st.font*0.5
 		at := r2.Add(mid, r2.Scale(off, nrm))
+		if overlapsAny(textBox(at.X, at.Y, tw, th, 0.5, 0.5, pad), placed) {
+			at = r2.Sub(mid, r2.Scale(off, nrm)) // the other side of the line
+		}
 		at.X = clamp(at.X, f.x0+tw/2+st.font*0.3, f.x0+f.pw-tw/2-st.font*0.3)
 		at.Y = clamp(at.Y, f.y0+st.font, f.y0+f.ph-st.font*0.5)
 		haloText(c, e.name, at.X, at.Y, st.small, black, 0.5, 0.5)
@@ -867,6 +883,41 @@ func drawFluxLine(c canvas, f frame, l []r2.Vec, st style) (box, bool) {
 		acc += d
 	}
 	return box{}, false
+}
+
+// water is the colour of water levels.
+var water = color.RGBA{0, 90, 200, 255}
+
+// drawOverlay draws a water level: the line, the surveyor's inverted
+// triangle standing on it at its middle, and its label above its end.
+func drawOverlay(c canvas, f frame, ov Overlay, st style, placed []box) []box {
+	var out []box
+	for _, piece := range clipLine(ov.Points, f.win) {
+		if len(piece) < 2 {
+			continue
+		}
+		pts := f.pxs(piece)
+		c.stroke(white, 4*st.line, nil, false, pts)
+		c.stroke(water, 2*st.line, nil, false, pts)
+		a, b := pts[0], pts[len(pts)-1]
+		mid := r2.Scale(0.5, r2.Add(a, b))
+		s := st.font * 0.5
+		c.fill(water, []r2.Vec{{X: mid.X - s, Y: mid.Y - 1.6*s}, {X: mid.X + s, Y: mid.Y - 1.6*s}, {X: mid.X, Y: mid.Y - 0.1*s}})
+		out = append(out, box{mid.X - s, mid.Y - 1.6*s, mid.X + s, mid.Y})
+		if ov.Label == "" {
+			continue
+		}
+		tw, th := c.measure(ov.Label, st.small)
+		right := b
+		if a.X > b.X {
+			right = a
+		}
+		x, ax := right.X, 1.0
+		y := right.Y - st.font*0.8
+		haloText(c, ov.Label, x, y, st.small, water, ax, 0.5)
+		out = append(out, textBox(x, y, tw, th, ax, 0.5, st.font*0.2))
+	}
+	return out
 }
 
 // drawMarker circles a point and writes its text beside it, where it

@@ -106,6 +106,11 @@ type Outcome struct {
 	// metres (a flow's velocity equipotentials, seeded where the stream
 	// enters the window). No flow net is counted then.
 	FluxLines func(w grid.Window, k int) [][]r2.Vec
+	// Overlays are named lines drawn over both maps (water levels above
+	// the beds), and Extent points the pictures' default window must take
+	// in (the water levels above a section).
+	Overlays []draw.Overlay
+	Extent   []r2.Vec
 	// Plots are pictures of the job's own (a chart against something else
 	// than the arc length), each written as NAME.png (and .svg).
 	Plots []Plot
@@ -150,8 +155,10 @@ type Mark struct {
 	Value    float64 // the value marked, in Unit
 	Unit     string
 	Boundary string // the boundary it lies on, if any
-	// Text labels the mark on the map ("peak 2.318 kV/mm").
-	Text string
+	// Text labels the mark on the map ("peak 2.318 kV/mm"), Title names it
+	// in the map's title ("exit gradient 0.9021 on "downstream bed"");
+	// "" for the defaults "peak <value>" and "peak <value> on <boundary>".
+	Text, Title string
 	// Caption says what the mark is, for the report's picture caption.
 	Caption string
 }

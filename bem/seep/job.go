@@ -5,14 +5,28 @@ package seep
 
 import (
 	"fmt"
+	"strings"
 
 	"github.com/rimfield/rimfield/bem/job"
 	"github.com/rimfield/rimfield/geom"
 )
 
 // Job is the seepage job: confined steady seepage under structures, in the
-// words of geotechnical and hydraulic engineering.
-type Job struct{}
+// words of geotechnical and hydraulic engineering. Its fields hold its
+// flags.
+type Job struct {
+	// Truncation re-solves the section with its outer walls moved out
+	// (--truncation-check).
+	Truncation bool
+	// Soil names the soil of Lane's creep check (--soil).
+	Soil string
+	// ExitLength (m) is the length of exit face a singular exit gradient is
+	// averaged over (--exit-length); 0: the default.
+	ExitLength float64
+	// PipingSafety is the least acceptable factor against piping
+	// (--piping-safety); 0: DefaultPipingSafety.
+	PipingSafety float64
+}
 
 // NewJob returns the seepage job with its defaults.
 func NewJob() job.Job { return &Job{} }
@@ -59,18 +73,47 @@ func describeCondition(c geom.Condition) string {
 // drops.
 func (*Job) Words() *job.Words { return &seepWords }
 
-// Options returns none yet.
-func (*Job) Options() []job.Option { return nil }
+// Options returns the seepage flags.
+func (j *Job) Options() []job.Option {
+	return []job.Option{
+		{Name: "truncation-check", Usage: "seepage: solve the section again with its outer walls (sides and bottom) moved twice as far out and report how much the discharge and the exit gradient move, with a warning above 2 %", Value: &j.Truncation},
+		{Name: "soil", Usage: "seepage: the soil of Lane's weighted creep check, one of " + laneNames(), Value: &j.Soil},
+		{Name: "exit-length", Usage: fmt.Sprintf("seepage: length of exit face in metres over which an exit gradient that is infinite in theory (the toe of a floor without a cutoff) is averaged; 0: %g of the structure's seepage path", DefaultExitFraction), Value: &j.ExitLength},
+		{Name: "piping-safety", Usage: fmt.Sprintf("seepage: least acceptable factor of safety against piping, critical gradient over exit gradient (default %g; take your code's)", DefaultPipingSafety), Value: &j.PipingSafety},
+	}
+}
 
-// Check lists the unit weight of water and the critical gradient.
-func (*Job) Check(s *job.Setup) (*job.Checked, error) {
+// options are the analysis options of the flags.
+func (j *Job) options() Options {
+	return Options{ExitLength: j.ExitLength, PipingSafety: j.PipingSafety, Soil: j.Soil}
+}
+
+// Check lists the unit weight of water, the critical gradient, the soils
+// and the structures, and refuses bad flags.
+func (j *Job) Check(s *job.Setup) (*job.Checked, error) {
 	p := s.Scene.Problem
-	return &job.Checked{
+	c := &job.Checked{
 		Lines: []string{
 			fmt.Sprintf("unit weight of water %g kN/m^3, critical gradient %g", p.UnitWeightWater, p.CriticalGradient),
 		},
 		Cautions: cautions(s),
-	}, nil
+	}
+	if err := j.options().check(); err != nil {
+		c.Refusal = err
+	}
+	if j.Soil != "" {
+		if r, ok := laneRatio(j.Soil); ok {
+			c.Lines = append(c.Lines, fmt.Sprintf("Lane's creep check against %q: weighted creep ratio of at least %g", j.Soil, r))
+		}
+	}
+	var structures []string
+	for _, b := range s.Scene.Bodies {
+		structures = append(structures, fmt.Sprintf("%q", b.Name))
+	}
+	if len(structures) > 0 {
+		c.Lines = append(c.Lines, "structures (impervious bodies): "+strings.Join(structures, ", "))
+	}
+	return c, nil
 }
 
 // cautions are the common cautions and those of seepage.
@@ -86,18 +129,43 @@ func cautions(s *job.Setup) []job.Caution {
 		})
 }
 
-// Solve solves the scene's heads.
-func (*Job) Solve(s *job.Setup) (*job.Outcome, error) {
+// Solve solves the scene's heads, analyses them (discharge, uplift, exit
+// gradients, piping, heave, creep), runs the truncation study when asked
+// for, and presents the results.
+func (j *Job) Solve(s *job.Setup) (*job.Outcome, error) {
+	o := j.options()
+	if err := o.check(); err != nil {
+		return nil, err
+	}
 	sys, sol, err := job.Solve(s)
 	if err != nil {
 		return nil, err
 	}
-	return &job.Outcome{
+	rep, err := Analyse(s.Scene, sys, sol, o)
+	if err != nil {
+		return nil, fmt.Errorf("seepage results: %w", err)
+	}
+	var tr *TruncationStudy
+	if j.Truncation {
+		if tr, err = Truncation(s.Scene, rep, TruncationOptions{Mesh: s.MeshOptions, Analysis: o}); err != nil {
+			return nil, fmt.Errorf("truncation check: %w", err)
+		}
+	}
+	required := o.PipingSafety
+	if required == 0 {
+		required = DefaultPipingSafety
+	}
+	sec := newSection(rep, required, tr)
+	out := &job.Outcome{
 		System:   sys,
 		Solution: sol,
 		Solver:   "dense",
+		Section:  &job.Section{Key: "seepage", Value: sec},
+		Warnings: sec.Warnings,
 		Cautions: cautions(s),
-		Warnings: []string{"the seepage section (discharge, exit gradient, uplift) is not computed by this version yet"},
-		Headline: job.InflowHeadline(sol, &seepWords),
-	}, nil
+		Columns:  columns(rep),
+		Results:  "Seepage results",
+	}
+	present(out, s.Scene, rep, sec, tr)
+	return out, nil
 }

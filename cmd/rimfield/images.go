@@ -119,8 +119,11 @@ func pictureSpecs(t *task) (*pictures, error) {
 		// short of the boundary, cannot see: mark that one. Both numbers in
 		// the peak's unit, so that they compare at a glance.
 		d := draw.DisplayFor(mk.Unit, mk.Value)
-		fld.Title = fmt.Sprintf("%s: peak %s on %q (largest on the sampling grid %s)", job.Capitalise(w.Field),
-			d.Format(mk.Value), mk.Boundary, d.Format(peak))
+		name := mk.Title
+		if name == "" {
+			name = fmt.Sprintf("peak %s on %q", d.Format(mk.Value), mk.Boundary)
+		}
+		fld.Title = fmt.Sprintf("%s: %s (largest on the sampling grid %s)", job.Capitalise(w.Field), name, d.Format(peak))
 		text := mk.Text
 		if text == "" {
 			text = "peak " + d.Format(mk.Value)
@@ -138,6 +141,7 @@ func pictureSpecs(t *task) (*pictures, error) {
 		fld.Contours, fld.OtherContours = contours, true
 	}
 	ps.field = fld
+	ps.potential.Overlays, ps.field.Overlays = out.Overlays, out.Overlays
 	for _, mk := range out.Marks {
 		m := draw.Marker{At: mk.At, Text: mk.Text}
 		ps.potential.Marks = append(ps.potential.Marks, m)

@@ -65,7 +65,26 @@ func (t *task) window() grid.Window {
 		w := t.pics.win
 		return grid.Window{Min: r2.Vec{X: w[0] * s, Y: w[1] * s}, Max: r2.Vec{X: w[2] * s, Y: w[3] * s}}
 	}
-	return grid.Auto(t.mesh)
+	w := grid.Auto(t.mesh)
+	if t.out != nil && len(t.out.Extent) > 0 {
+		// Take in the job's points with the margin Auto keeps.
+		lo, hi := w.Min, w.Max
+		for _, p := range t.out.Extent {
+			lo = r2.Vec{X: math.Min(lo.X, p.X), Y: math.Min(lo.Y, p.Y)}
+			hi = r2.Vec{X: math.Max(hi.X, p.X), Y: math.Max(hi.Y, p.Y)}
+		}
+		if lo != w.Min || hi != w.Max {
+			m := 0.04 * math.Max(hi.X-lo.X, hi.Y-lo.Y)
+			if hi.Y > w.Max.Y {
+				hi.Y += m
+			}
+			if lo.Y < w.Min.Y {
+				lo.Y -= m
+			}
+			w = grid.Window{Min: lo, Max: hi}
+		}
+	}
+	return w
 }
 
 // levelRange returns the range of potential the equipotentials are drawn
