@@ -73,7 +73,7 @@ func flagUsages(fs *pflag.FlagSet) string {
 			names += " " + varname
 		}
 		switch f.DefValue {
-		case "", "0", "false", "[]":
+		case "", "0", "false", "[]", "NaN":
 		default:
 			usage += fmt.Sprintf(" (default %s)", f.DefValue)
 		}

@@ -196,19 +196,29 @@ func finite(name string, vs ...quantity) error {
 	return nil
 }
 
-// encode writes the scene file, one feature per line, and reads it back
-// with geom.Read and lays it out, so that what a template hands out is a
-// valid scene.
+// encode writes an electrostatic scene file and reads it back (see
+// writeScene).
 func encode(name string, f sceneFile) ([]byte, error) {
-	f.Type = "FeatureCollection"
 	f.Problem.Physics = geom.Electrostatic.String()
+	features := make([]any, len(f.Features))
+	for i, ft := range f.Features {
+		features[i] = ft
+	}
+	return writeScene(name, f.Problem, features)
+}
+
+// writeScene writes a scene file with the given problem member, one
+// feature per line, and reads it back with geom.Read and lays it out, so
+// that what a template hands out is a valid scene. A complaint about the
+// unit names the template's Unit.
+func writeScene(name string, problem any, features []any) ([]byte, error) {
 	var b bytes.Buffer
-	head, err := json.Marshal(f.Problem)
+	head, err := json.Marshal(problem)
 	if err != nil {
 		return nil, fmt.Errorf("template: %s: %w", name, err)
 	}
 	fmt.Fprintf(&b, "{\"type\": \"FeatureCollection\",\n \"problem\": %s,\n \"features\": [", head)
-	for i, ft := range f.Features {
+	for i, ft := range features {
 		line, err := json.Marshal(ft)
 		if err != nil {
 			return nil, fmt.Errorf("template: %s: %w", name, err)

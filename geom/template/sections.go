@@ -1,10 +1,7 @@
 package template
 
 import (
-	"bytes"
-	"encoding/json"
 	"errors"
-	"fmt"
 	"math"
 	"math/cmplx"
 	"strconv"
@@ -145,42 +142,16 @@ func encodeFlow(name string, f Flow, secs []section) ([]byte, error) {
 		prob.Ground = &ground{Y: coord(y0)}
 		prob.Stream.AngleDeg = 0
 	}
-	var b bytes.Buffer
-	head, err := json.Marshal(prob)
-	if err != nil {
-		return nil, fmt.Errorf("template: %s: %w", name, err)
-	}
-	fmt.Fprintf(&b, "{\"type\": \"FeatureCollection\",\n \"problem\": %s,\n \"features\": [", head)
+	features := make([]any, len(secs))
 	for i, s := range secs {
 		ring := make([]point, len(s.ring)+1)
 		for k, v := range s.ring {
 			ring[k] = point{coord(v.X), coord(v.Y)}
 		}
 		ring[len(s.ring)] = ring[0]
-		ft := flowFeature{"Feature", flowProps{Part: "body", Name: s.name, Kutta: s.kutta}, geometry{Type: "Polygon", Rings: [][]point{ring}}}
-		line, err := json.Marshal(ft)
-		if err != nil {
-			return nil, fmt.Errorf("template: %s: %w", name, err)
-		}
-		if i > 0 {
-			b.WriteByte(',')
-		}
-		b.WriteString("\n  ")
-		b.Write(line)
+		features[i] = flowFeature{"Feature", flowProps{Part: "body", Name: s.name, Kutta: s.kutta}, geometry{Type: "Polygon", Rings: [][]point{ring}}}
 	}
-	b.WriteString("\n ]}\n")
-	sc, err := geom.Read(bytes.NewReader(b.Bytes()))
-	if err != nil {
-		var ge *geom.Error
-		if errors.As(err, &ge) && ge.Member == "problem.unit" {
-			return nil, errorf(name, "Unit", "%s", ge.Msg)
-		}
-		return nil, fmt.Errorf("template: %s: %w", name, err)
-	}
-	if _, err := sc.Layout(); err != nil {
-		return nil, fmt.Errorf("template: %s: %w", name, err)
-	}
-	return b.Bytes(), nil
+	return writeScene(name, prob, features)
 }
 
 // NACA4 is a NACA 4-digit section from the published equations (Abbott &
