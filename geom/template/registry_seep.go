@@ -15,6 +15,7 @@ func seepParams(s *Seep, up, down float64, downUsage string) []Param {
 		number("downstream-head", &s.DownstreamHead, down, downUsage),
 		number("unit-weight", &s.UnitWeight, 9.81, "unit weight of water in kN/m^3"),
 		number("critical-gradient", &s.CriticalGradient, 1, "critical hydraulic gradient of the soil, (Gs - 1)/(1 + e): about 1 for sands"),
+		{"impervious-base", "the bottom of the section is a real impervious stratum (rock, clay): drawn as an edge of zero flux that rimfield solve --truncation-check does not move; without it the bottom is a wall that may cut a deeper soil short", &s.ImperviousBase},
 	}
 }
 

@@ -22,6 +22,11 @@ type Seep struct {
 	// CriticalGradient the soil's critical gradient; 0: the scene defaults
 	// (9.81 and 1).
 	UnitWeight, CriticalGradient float64
+	// ImperviousBase draws the bottom of the section as an edge of zero
+	// flux named "impervious base": a real impervious stratum (rock, a
+	// clay), which a truncation check does not move. Without it the bottom
+	// is an insulated wall that may only cut a deeper soil short.
+	ImperviousBase bool
 }
 
 // seepProblem is the problem member of a seepage scene as written.
@@ -42,7 +47,19 @@ type seepProps struct {
 	Part      string   `json:"part"`
 	Name      string   `json:"name"`
 	Potential *float64 `json:"potential,omitempty"`
+	Flux      *float64 `json:"flux,omitempty"`
 	K         float64  `json:"k,omitempty"`
+}
+
+// base is the section's bottom from x0 to x1 at y as an impervious edge,
+// when asked for.
+func (s *Seep) base(features []any, x0, x1, y float64) []any {
+	if !s.ImperviousBase {
+		return features
+	}
+	zero := 0.0
+	return append(features, seepFeature{"Feature", seepProps{Part: "edge", Name: "impervious base", Flux: &zero},
+		geometry{Type: "LineString", Line: []point{{coord(x0), coord(y)}, {coord(x1), coord(y)}}}})
 }
 
 func (s *Seep) resolve(name string) (seepProblem, error) {
@@ -158,7 +175,7 @@ func (w Weir) Bytes() ([]byte, error) {
 		structure("weir", ring),
 		bed("upstream bed", w.UpstreamHead, x0, l),
 		bed("downstream bed", w.DownstreamHead, r, x1))
-	return writeScene(name, prob, features)
+	return writeScene(name, prob, w.base(features, x0, x1, -depth))
 }
 
 // conductivity checks hydraulic conductivities in m/s.
@@ -206,12 +223,12 @@ func (s SheetPile) Bytes() ([]byte, error) {
 		return nil, errorf(name, "Depth", "the pile %g %s deep reaches the bottom of the layer (%g %s); make it shorter or the layer deeper", s.Depth, u, s.Layer, u)
 	}
 	h := s.Thickness / 2
-	return writeScene(name, prob, []any{
+	return writeScene(name, prob, s.base([]any{
 		soil("soil", s.K, -s.Upstream, -s.Layer, s.Downstream, 0),
 		pileFrom("sheet pile", 0, 0, -s.Depth, s.Thickness),
 		bed("upstream bed", s.UpstreamHead, -s.Upstream, -h),
 		bed("downstream bed", s.DownstreamHead, h, s.Downstream),
-	})
+	}, -s.Upstream, s.Downstream, -s.Layer))
 }
 
 // Cofferdam is a double-wall cofferdam in a river bed: two sheet-pile walls
@@ -265,7 +282,7 @@ func (c Cofferdam) Bytes() ([]byte, error) {
 	// The soil with the excavation cut out, counter-clockwise.
 	ring := []point{{coord(x0), coord(-c.Layer)}, {coord(x1), coord(-c.Layer)}, {coord(x1), 0}, {coord(r), 0},
 		{coord(r), coord(-c.Excavation)}, {coord(l), coord(-c.Excavation)}, {coord(l), 0}, {coord(x0), 0}, {coord(x0), coord(-c.Layer)}}
-	return writeScene(name, prob, []any{
+	return writeScene(name, prob, c.base([]any{
 		seepFeature{"Feature", seepProps{Part: "region", Name: "soil", K: c.K}, geometry{Type: "Polygon", Rings: [][]point{ring}}},
 		pileFrom("left wall", l, 0, -d, c.Thickness),
 		pileFrom("right wall", r, 0, -d, c.Thickness),
@@ -273,7 +290,7 @@ func (c Cofferdam) Bytes() ([]byte, error) {
 		bed("right river bed", c.UpstreamHead, r+h, x1),
 		seepFeature{"Feature", seepProps{Part: "edge", Name: "excavation floor", Potential: potential(c.InsideHead)},
 			geometry{Type: "LineString", Line: []point{{coord(l + h), coord(-c.Excavation)}, {coord(r - h), coord(-c.Excavation)}}}},
-	})
+	}, x0, x1, -c.Layer))
 }
 
 // pileFrom is a wall from y0 down to y1 centred on x, of thickness t (0: a
