@@ -38,6 +38,17 @@ type side struct {
 	// prev and next are the sides that share this side's start and end
 	// points (walking with the region on the left), or -1.
 	prev, next int
+	// twin is the side of the same part that is this side's other face
+	// (a sheet; see sheet.go), or -1.
+	twin int
+	// sheet is true when the panel has a twin in the mesh (in this part or
+	// another).
+	sheet bool
+	// anchor is -1 (+1) on a face of an impervious pair whose start (end)
+	// is where the sheet meets another boundary: its potential, as the
+	// collocation rows and Eval see it, is linear there, through the
+	// neighbour's value at that end (sheet.go); 0 elsewhere.
+	anchor int8
 }
 
 // transform maps a point into the region's isotropic frame.
@@ -107,6 +118,7 @@ const (
 	rowFloating            // total inflow through a floating owner
 	rowBalance             // zero total inflow into a region
 	rowKutta               // Kutta condition: replaces a floating owner's total inflow
+	rowSheetFlux           // conormal derivative on the second face of a sheet pair (sheet.go)
 )
 
 type row struct {
@@ -117,6 +129,9 @@ type row struct {
 	scale  float64 // the row is multiplied by this
 	// pa and pb are the two panels of a Kutta condition (rowKutta).
 	pa, pb int
+	// terms, when not nil, replace pa and pb: the panels of a Kutta
+	// condition at a sheet's tip and their weights (kutta.go).
+	terms []kuttaTerm
 }
 
 // newProblem numbers the unknowns and equations of the mesh; each Kutta
@@ -205,6 +220,9 @@ func newProblem(m *mesh.Mesh, kutta ...Kutta) (*problem, error) {
 			return nil, fmt.Errorf("bem: panel %d has a non-zero condition but no owner", j)
 		}
 	}
+	if err := pr.checkTwins(); err != nil {
+		return nil, err
+	}
 	// Sides of each region.
 	for j, p := range m.Panels {
 		pr.addSide(p.Left, j, +1)
@@ -219,6 +237,8 @@ func newProblem(m *mesh.Mesh, kutta ...Kutta) (*problem, error) {
 			pr.parts = append(pr.parts, pr.regions[i].components()...)
 		}
 	}
+	pr.pairTwins()
+	pr.anchorSheets()
 	// Constants: the potential at infinity of the unbounded part (an
 	// unknown when some potential is fixed and no grounded plane holds it at
 	// 0), the residual constant of every bounded part.
@@ -232,8 +252,13 @@ func newProblem(m *mesh.Mesh, kutta ...Kutta) (*problem, error) {
 	pr.nUnk = col
 	// Rows.
 	for i := range pr.parts {
-		for s := range pr.parts[i].sides {
-			pr.rows = append(pr.rows, row{kind: rowCollocation, region: i, side: s, scale: 1})
+		r := &pr.parts[i]
+		for s := range r.sides {
+			rw := row{kind: r.sheetRowKind(s), region: i, side: s, scale: 1}
+			if rw.kind == rowSheetFlux {
+				rw.scale = pr.sheetRowScale(r, s)
+			}
+			pr.rows = append(pr.rows, rw)
 		}
 	}
 	kuttaRows, err := pr.kuttaRows(kutta)
@@ -277,7 +302,7 @@ func (pr *problem) addSide(reg, j int, sign float64) {
 		a, b = b, a
 	}
 	ta, tb := r.transform(a), r.transform(b)
-	s := side{panel: j, sign: sign, frame: newFrame(ta, tb)}
+	s := side{panel: j, sign: sign, frame: newFrame(ta, tb), twin: -1, sheet: pr.m.TwinOf(j) >= 0}
 	s.scale = r2.Norm(r2.Sub(b, a)) / s.frame.l / r.kbar
 	if r.image {
 		// The mirror of a->b in the plane, traversed b*->a* so that its
@@ -376,13 +401,21 @@ func (pr *problem) fillRow(i int, arow, brow []float64) {
 		me := r.sides[rw.side]
 		x := pr.m.Panels[me.panel].Mid()
 		// 1/2 u(x) + sum_k dl_k u_k - sum_k sl_k F_k - C = 0, with F_k the
-		// inflow into this region (sign * panel inflow into its Left).
+		// inflow into this region (sign * panel inflow into its Left). At
+		// a sheet pair the free term is the faces' mean and the twin's
+		// integrals are the self ones (sheet.go).
 		put(pr.uSlot[me.panel], 0.5)
+		if me.twin >= 0 {
+			put(pr.uSlot[r.sides[me.twin].panel], 0.5)
+		}
 		for k := range r.sides {
 			s := &r.sides[k]
-			cu, cf := r.coefficients(s, x, k == rw.side)
+			cu, cf := r.coefficients(s, x, k == rw.side || k == me.twin)
 			put(pr.uSlot[s.panel], cu)
 			put(pr.fSlot[s.panel], -cf*s.sign*pr.colScale(s.panel))
+			if s.anchor != 0 {
+				pr.putAnchored(r, k, r.linearCoefficient(s, x, k == rw.side || k == me.twin), put)
+			}
 		}
 		if r.constCol >= 0 {
 			arow[r.constCol] -= 1
@@ -394,8 +427,16 @@ func (pr *problem) fillRow(i int, arow, brow []float64) {
 			}
 		}
 	case rowKutta:
+		if rw.terms != nil {
+			for _, t := range rw.terms {
+				put(pr.fSlot[t.panel], rw.scale*t.weight*pr.colScale(t.panel))
+			}
+			break
+		}
 		put(pr.fSlot[rw.pa], rw.scale*pr.colScale(rw.pa))
 		put(pr.fSlot[rw.pb], rw.scale*pr.colScale(rw.pb))
+	case rowSheetFlux:
+		pr.fillSheetFlux(rw, put)
 	case rowBalance:
 		r := &pr.parts[rw.region]
 		for k := range r.sides {
@@ -417,15 +458,38 @@ func (pr *problem) colScale(j int) float64 {
 
 // link finds each side's neighbours along the boundary: the side whose end
 // is this side's start and the side whose start is its end. Panels of a
-// mesh share their endpoints exactly.
+// mesh share their endpoints exactly. Where several sides start at a
+// side's end (boundaries meeting at a vertex, a sheet ending on another
+// boundary), the next is the one that keeps the region on the left: the
+// first met turning clockwise from the way back.
 func (r *region) link() {
-	starts := make(map[r2.Vec]int, len(r.sides))
+	starts := make(map[r2.Vec][]int, len(r.sides))
 	for k := range r.sides {
-		starts[r.sides[k].frame.a] = k
+		a := r.sides[k].frame.a
+		starts[a] = append(starts[a], k)
 		r.sides[k].prev, r.sides[k].next = -1, -1
 	}
 	for k := range r.sides {
-		if n, ok := starts[r.sides[k].frame.b]; ok && n != k {
+		cands := starts[r.sides[k].frame.b]
+		n := -1
+		switch {
+		case len(cands) == 1:
+			n = cands[0]
+		case len(cands) > 1:
+			back := r2.Scale(-1, r.sides[k].frame.t)
+			best := math.Inf(1)
+			for _, c := range cands {
+				t := r.sides[c].frame.t
+				cw := -math.Atan2(r2.Cross(back, t), r2.Dot(back, t))
+				if cw <= 0 {
+					cw += 2 * math.Pi
+				}
+				if cw < best {
+					n, best = c, cw
+				}
+			}
+		}
+		if n >= 0 && n != k {
 			r.sides[k].next = n
 			r.sides[n].prev = k
 		}
@@ -477,8 +541,7 @@ func (r *region) components() []region {
 			continue
 		}
 		owner[i] = -1
-		f := r.sides[l[0]].frame
-		probe := r2.Scale(0.5, r2.Add(f.a, f.b))
+		probe := r.holeProbe(l)
 		best := math.Inf(1)
 		for j, m := range loops {
 			if area[j] > 0 && area[j] < best && r.loopWinding(m, probe) == 1 {
@@ -518,4 +581,20 @@ func (r *region) loopWinding(loop []int, p r2.Vec) int {
 		w += crossing(r.sides[k].frame.a, r.sides[k].frame.b, p)
 	}
 	return w
+}
+
+// holeProbe returns a point of a hole loop for the test of which outer
+// loop holds it: the midpoint of its first side that is not a sheet face,
+// or, on a loop of sheet faces alone (a sheet lying in the region, a
+// closed sheet seen from outside), a point just off the first side on the
+// region's side, which lies on neither face.
+func (r *region) holeProbe(loop []int) r2.Vec {
+	for _, k := range loop {
+		if f := r.sides[k].frame; !r.sides[k].sheet {
+			return r2.Scale(0.5, r2.Add(f.a, f.b))
+		}
+	}
+	f := r.sides[loop[0]].frame
+	mid := r2.Scale(0.5, r2.Add(f.a, f.b))
+	return r2.Sub(mid, r2.Scale(1e-6*f.l, f.n))
 }

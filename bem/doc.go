@@ -93,6 +93,26 @@
 // is a slip wall exactly: the image kernel holds psi = 0 on it, and the
 // stream must run along it.
 //
+// # Sheets
+//
+// A sheet (a body of zero thickness; mesh.Mesh.Twin pairs the two faces
+// of each of its panels) is two coincident sides of the part it lies in,
+// each with its own u and F. The ordinary identity, collocated at the
+// pair's midpoint, sees only the faces' mean potential (its free term)
+// and, on every other boundary, the sum of their inflows (a single layer)
+// and the jump of their potentials (a double layer); the pair's second
+// equation is the conormal derivative of the representation on one face,
+// a hypersingular equation whose finite-part integrals over straight
+// panels are in closed form (the dual boundary element method: Portela,
+// Aliabadi & Rooke, Int. J. Numer. Methods Eng. 33, 1992). A sheet with a
+// fixed or floating potential has its two inflows for unknowns (the
+// charge on each face), an impervious one its two potentials (the head on
+// each face); see sheet.go for the equations, the collocation points that
+// make the jump second order at free tips and along graded panels, and
+// the treatment of a sheet's end on another boundary. A Kutta condition at
+// a sheet's trailing tip holds the single-layer density to the r^1/2 of
+// a smooth departure across the last two panels (kutta.go).
+//
 // # Evaluation
 //
 // Potential and gradient at a point come from the representation of the

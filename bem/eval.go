@@ -171,6 +171,12 @@ func (s *Solution) computeSlopes() {
 			if !p.Interface() && p.Cond.Kind != geom.Flux {
 				continue
 			}
+			if sd.anchor != 0 {
+				// The linear potential of the system itself (sheet.go).
+				cs, cn, n := pr.anchorSlope(r, k)
+				sl[k] = cs*s.U[sd.panel] + cn*s.U[r.sides[n].panel]
+				continue
+			}
 			u0 := s.U[sd.panel]
 			var du, ds float64
 			if sd.prev >= 0 {

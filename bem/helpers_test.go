@@ -83,6 +83,7 @@ func split(a, b r2.Vec, n int, graded bool) []r2.Vec {
 type builder struct {
 	lay    geom.Layout
 	panels []mesh.Panel
+	twins  [][2]int // pairs of sheet faces (sheet_helpers_test.go)
 }
 
 func newBuilder(open bool) *builder {
@@ -118,6 +119,15 @@ func (b *builder) segment(p, q r2.Vec, n int, graded bool, left, right, owner in
 func (b *builder) mesh() *mesh.Mesh {
 	lay := b.lay
 	m := &mesh.Mesh{Panels: b.panels, Layout: &lay}
+	if len(b.twins) > 0 {
+		m.Twin = make([]int, len(b.panels))
+		for j := range m.Twin {
+			m.Twin[j] = -1
+		}
+		for _, t := range b.twins {
+			m.Twin[t[0]], m.Twin[t[1]] = t[1], t[0]
+		}
+	}
 	lo, hi := m.Bounds()
 	lay.Diagonal = r2.Norm(r2.Sub(hi, lo))
 	return m

@@ -127,6 +127,13 @@ func (sys *System) rhs(d *Data) (*mat.VecDense, []geom.Condition, error) {
 				x := sys.pr.m.Panels[r.sides[rw.side].panel].Mid()
 				b.SetVec(i, b.AtVec(i)+rw.scale*r.incident(uniform, x))
 			}
+		case rowSheetFlux:
+			// Its conormal derivative on a sheet's face (sheet.go), a
+			// constant.
+			if r := &sys.pr.parts[rw.region]; r.open && uniform != (r2.Vec{}) {
+				w := r.conormal(sys.pr, &r.sides[rw.side])
+				b.SetVec(i, b.AtVec(i)+rw.scale*r2.Dot(w, r.incidentGrad(uniform)))
+			}
 		}
 	}
 	return b, conds, nil

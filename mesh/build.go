@@ -232,6 +232,7 @@ func Build(l *geom.Layout, o Options) (*Mesh, error) {
 			prev = next
 		}
 	}
+	b.pairPanels(m)
 	return m, nil
 }
 
@@ -423,7 +424,9 @@ func (b *builder) classify() {
 
 func (b *builder) singularAt(ends []end) bool {
 	if len(ends) != 2 {
-		return true // a chain ends here, or three or more pieces meet
+		// A chain ends here, or three or more pieces meet (a straight
+		// sheet merely continuing is no corner: sheet.go).
+		return !b.sheetThrough(ends)
 	}
 	e1, e2 := ends[0], ends[1]
 	p1, p2 := b.l.Pieces[e1.piece()], b.l.Pieces[e2.piece()]
@@ -511,6 +514,7 @@ func (b *builder) place(h0 float64, scale []float64, keep bool) ([][]float64, in
 		nodes[i] = ts
 		endLen[i] = [2]float64{ts[1] - ts[0], ts[len(ts)-1] - ts[len(ts)-2]}
 	}
+	b.mirrorTwins(nodes, endLen)
 	caps := make([][2]float64, b.n)
 	for i := range caps {
 		caps[i] = noCaps
@@ -542,6 +546,7 @@ func (b *builder) place(h0 float64, scale []float64, keep bool) ([][]float64, in
 				changed[i] = false
 			}
 		}
+		b.mirrorTwins(nodes, endLen)
 	}
 	total := 0
 	for _, ts := range nodes {
@@ -1050,6 +1055,9 @@ func (b *builder) gapAt(gs *gapSearch, i int, t, rcap float64) (gap, body, raw f
 					v := r2.Sub(r2.Add(qj.A, r2.Scale(s/b.lens[j], r2.Sub(qj.B, qj.A))), p)
 					across := !pc.Interface() && !qj.Interface() &&
 						r2.Dot(v, ni) >= -1e-9*d && r2.Dot(v, normalOf(qj)) <= 1e-9*d
+					if across && (b.twinOf(i) >= 0 || b.twinOf(j) >= 0) {
+						continue // behind a sheet's face is the sheet (sheet.go)
+					}
 					if across && d >= bestB || !across && d >= best {
 						continue
 					}

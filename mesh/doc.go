@@ -53,4 +53,15 @@
 // changes between two boundary pieces, where three or more pieces meet and
 // where a chain of pieces ends. Nearly straight vertices, as on a polygon
 // standing for a circle, are not graded.
+//
+// # Sheets
+//
+// The two faces of a sheet (geom.Layout.Twin) get the same nodes: those of
+// the face that asks for more panels, mirrored onto the other, so that
+// twin panels have identical end points, reversed (Mesh.Twin). A sheet's
+// free end, where its faces meet turning back, is graded as a tip (r^-1/2);
+// where it meets another boundary three or more pieces meet and it is
+// graded too; a vertex where a straight sheet merely continues is not.
+// Behind a sheet's face there is no gap to size panels by: the face behind
+// is the sheet's other face.
 package mesh

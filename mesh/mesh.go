@@ -48,6 +48,19 @@ type Mesh struct {
 	Size float64
 	// Singular lists the vertices toward which panels were graded.
 	Singular []r2.Vec
+	// Twin pairs the two faces of a sheet (geom.Layout.Twin): when not nil
+	// it has one entry per panel, the index of the panel with the same end
+	// points reversed, on the sheet's other face, or -1. nil when no panel
+	// has a twin.
+	Twin []int
+}
+
+// TwinOf returns the index of panel j's twin, or -1.
+func (m *Mesh) TwinOf(j int) int {
+	if m.Twin == nil {
+		return -1
+	}
+	return m.Twin[j]
 }
 
 // Bounds returns the bounding box of the panels.
