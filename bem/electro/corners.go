@@ -38,7 +38,7 @@ type Corner struct {
 	Junction bool
 	// Exponent p < 0 of the field near the vertex, |E| ~ A r^p: p = lambda
 	// - 1 with lambda from the separable solution in the wedge (see
-	// wedgeExponent): pi/beta - 1 at a corner in one dielectric,
+	// mesh.WedgeExponent): pi/beta - 1 at a corner in one dielectric,
 	// pi/(2 beta) - 1 where the conductor meets an insulated boundary.
 	Exponent float64
 	// Coefficient A (V m^(-1-p)) fitted to the panels of the conductor near
@@ -81,7 +81,7 @@ func (c Corner) RoundingRadius(target float64) float64 {
 // around the field side (another conductor panel, or an insulated or flux
 // boundary), the field side is split into sectors by the dielectric
 // interfaces that leave the vertex, and the field exponent follows from
-// the separable solution across them (wedgeExponent): singular when below
+// the separable solution across them (mesh.WedgeExponent): singular when below
 // -0.05. Without interfaces that is pi/beta - 1 (conductor on both sides)
 // or pi/(2 beta) - 1 (conductor meets an insulated boundary), beta the
 // field-side opening. Anisotropic materials enter with sqrt(kx ky), an
@@ -160,20 +160,20 @@ func (f *Fields) findCorners() []Corner {
 			}
 		}
 		slices.SortFunc(rays, func(a, b ray) int { return cmp.Compare(a.phi, b.phi) })
-		secs := make([]sector, 0, len(rays)+1)
+		secs := make([]mesh.Sector, 0, len(rays)+1)
 		from, reg := 0.0, p.Left
 		for _, r := range rays {
-			secs = append(secs, sector{r.phi - from, eps(reg)})
+			secs = append(secs, mesh.Sector{Width: r.phi - from, K: eps(reg)})
 			from, reg = r.phi, r.right
 		}
-		secs = append(secs, sector{beta - from, eps(reg)})
+		secs = append(secs, mesh.Sector{Width: beta - from, K: eps(reg)})
 		if !cp {
 			slices.Reverse(secs)
 		}
 		var lambda float64
 		switch {
 		case len(rays) > 0:
-			lambda = wedgeExponent(secs, !(cp && cq))
+			lambda = mesh.WedgeExponent(secs, !(cp && cq))
 		case cp && cq:
 			lambda = math.Pi / beta
 		default:

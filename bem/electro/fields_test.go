@@ -296,7 +296,7 @@ func TestTripleJunction(t *testing.T) {
 	// at the junction, must grow by 2^(1-lambda) = 1.138 when the panels
 	// are halved: within 3 %, the next term of the expansion.
 	w1, w2 := math.Atan2(4, 3), math.Pi-math.Atan2(4, 3)
-	lambda := wedgeExponent([]sector{{w1, 1}, {w2, 4.5}}, false)
+	lambda := mesh.WedgeExponent([]mesh.Sector{{Width: w1, K: 1}, {Width: w2, K: 4.5}}, false)
 	box := closedRing(rectangle(-3, 0, 3, 3))
 	sb := newScene(false).
 		region("layer", 4.5, rectangle(-3, 0, 3, 1)).

@@ -10,29 +10,6 @@ import (
 	"github.com/rimfield/rimfield/mesh"
 )
 
-// Wedge exponents: one soil, a fixed-head face and an impervious one at
-// opening beta: lambda = pi / (2 beta); two fixed-head faces: pi / beta
-// (separable solutions in a wedge; Jackson, Classical Electrodynamics,
-// 1999, sec. 2.11). Two sectors of one soil give the same; two soils
-// between fixed-head faces satisfy k1 sin(l w2) cos(l w1) + k2 sin(l w1)
-// cos(l w2) = 0 (head and normal flux continuous across the interface).
-// Tolerance 1e-9 (bisection to rounding).
-func TestWedgeExponent(t *testing.T) {
-	for _, beta := range []float64{math.Pi / 3, math.Pi / 2, 0.75 * math.Pi, math.Pi, 1.5 * math.Pi} {
-		if got, want := wedgeExponent([]sector{{beta, 1}}, true), math.Pi/(2*beta); math.Abs(got-want) > 1e-9 {
-			t.Errorf("mixed, beta %.4g: %v, want %v", beta, got, want)
-		}
-		if got, want := wedgeExponent([]sector{{beta / 3, 2}, {2 * beta / 3, 2}}, false), math.Pi/beta; math.Abs(got-want) > 1e-9 {
-			t.Errorf("fixed heads, beta %.4g: %v, want %v", beta, got, want)
-		}
-	}
-	w1, w2, k1, k2 := math.Pi/2, math.Pi/2, 1.0, 5.0
-	l := wedgeExponent([]sector{{w1, k1}, {w2, k2}}, false)
-	if r := k1*math.Sin(l*w2)*math.Cos(l*w1) + k2*math.Sin(l*w1)*math.Cos(l*w2); math.Abs(r) > 1e-9 {
-		t.Errorf("two soils: lambda %v leaves %v", l, r)
-	}
-}
-
 // The toe of a flat floor on deep soil: the exit gradient is infinite
 // there, H / (pi sqrt(x^2 - l^2)) at x > l = b/2 (Harr, Groundwater and
 // Seepage, 1962, ch. 5, from memory; verified in shared/REFERENCES.md), so

@@ -134,7 +134,7 @@ type wedge struct {
 	v          r2.Vec
 	exit, next int  // the exit panel and the boundary panel across the vertex
 	ccw        bool // the soil lies counter-clockwise of the exit panel's direction from v
-	sectors    []sector
+	sectors    []mesh.Sector
 	beta       float64 // opening, isotropic frame when one region
 	region     int     // the region next to the exit panel
 }
@@ -253,16 +253,16 @@ func (a *analysis) wedgeAt(j int) (wedge, bool) {
 	w := wedge{v: v, exit: j, next: k, region: p.Left}
 	from, reg := 0.0, p.Left
 	for _, r := range rays {
-		w.sectors = append(w.sectors, sector{r.phi - from, a.kbar(reg)})
+		w.sectors = append(w.sectors, mesh.Sector{Width: r.phi - from, K: a.kbar(reg)})
 		from, reg = r.phi, r.beyond
 	}
-	w.sectors = append(w.sectors, sector{beta - from, a.kbar(reg)})
+	w.sectors = append(w.sectors, mesh.Sector{Width: beta - from, K: a.kbar(reg)})
 	w.beta = beta
 	if len(rays) == 0 {
 		// One soil: the opening in its isotropic frame.
 		t := a.frame(p.Left)
 		w.beta = cw(t.to(m.Panels[k].Tangent()), t.to(back))
-		w.sectors[0].width = w.beta
+		w.sectors[0].Width = w.beta
 	}
 	return w, true
 }
@@ -316,13 +316,13 @@ func (a *analysis) classify(w wedge) ExitCorner {
 		if len(w.sectors) == 1 {
 			c.Lambda = math.Pi / (2 * w.beta)
 		} else {
-			c.Lambda = wedgeExponent(w.sectors, true)
+			c.Lambda = mesh.WedgeExponent(w.sectors, true)
 		}
 	case math.Abs(a.sol.U[w.next]-a.sol.U[w.exit]) <= 1e-9*(1+math.Abs(a.sol.U[w.exit])):
 		if len(w.sectors) == 1 {
 			c.Lambda = math.Pi / w.beta
 		} else {
-			c.Lambda = wedgeExponent(w.sectors, false)
+			c.Lambda = mesh.WedgeExponent(w.sectors, false)
 		}
 	default:
 		c.Lambda = 0 // the head jumps at the vertex: gradient ~ 1/r
