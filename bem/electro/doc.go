@@ -25,6 +25,16 @@
 // E_n = F / (n.K.n) (F / eps in a uniform dielectric), positive when it
 // points away from the conductor.
 //
+// # Sheets
+//
+// A conductor drawn as a line (a trace, a thin electrode or shield: a
+// sheet body) has two faces, each a conductor panel with its own charge
+// density F (C/m^2) and field E_n = F / (n.K.n) on its own side; the
+// conductor's charge is the sum over both faces. Its free edges are thin
+// edges, |E| ~ r^-1/2 (an opening of 360 degrees); a trace lying on the
+// surface of a substrate has one face in the substrate and one in the
+// air, and its edges are junctions of the two with the same exponent.
+//
 // # Capacitance
 //
 // The Maxwell matrix C over the N conductors at a fixed potential relates
