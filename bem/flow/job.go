@@ -120,6 +120,9 @@ func (j *Job) Check(s *job.Setup) (*job.Checked, error) {
 	for _, b := range bodies {
 		if b.Kutta {
 			edge := fmt.Sprintf("a sharp trailing edge of %.3g degrees", b.Angle)
+			if sc.Bodies[bodyIndex(sc, b)].Sheet() {
+				edge = "the sheet's free end"
+			}
 			if b.Blunt {
 				edge = fmt.Sprintf("a blunt trailing edge (base %s long)", sceneLength(sc, math.Hypot(b.Base[1].X-b.Base[0].X, b.Base[1].Y-b.Base[0].Y)))
 			}
@@ -199,3 +202,13 @@ func angleText(deg float64) string { return job.FormatNumber(deg) + "°" }
 
 // speedText writes a speed with its unit.
 func speedText(v float64) string { return draw.FormatSI(v, "m/s") }
+
+// bodyIndex returns the index into sc.Bodies of the body b.
+func bodyIndex(sc *geom.Scene, b Body) int {
+	for i := range sc.Bodies {
+		if sc.Bodies[i].Name == b.Name {
+			return i
+		}
+	}
+	return 0
+}

@@ -222,6 +222,29 @@ func (fs *System) coefficients(rep *Report, c Chord, gamma float64, in func(int)
 		force = r2.Add(force, f)
 		mz += r2.Cross(r2.Sub(p.Mid(), c.QuarterChord), f)
 	}
+	// The suction at the free ends of sheets without a Kutta condition
+	// there (sheet.go).
+	for i, b := range fs.Bodies {
+		sb := &fs.Scene.Bodies[i]
+		for _, e := range freeEnds(sb) {
+			if b.Kutta && e == b.Chord.TrailingEdge {
+				continue
+			}
+			in1 := false
+			for j, p := range m.Panels {
+				if p.Owner == b.Owner && in(j) {
+					in1 = true
+					break
+				}
+			}
+			if !in1 {
+				continue
+			}
+			f, mf := fs.edgeForce(rep, b, sb, e, c.QuarterChord)
+			force = r2.Add(force, f)
+			mz += mf
+		}
+	}
 	qc := q * c.Length
 	return Coefficients{
 		Circulation: gamma,
@@ -240,10 +263,10 @@ func (fs *System) coefficients(rep *Report, c Chord, gamma float64, in func(int)
 func (fs *System) surface(rep *Report, i int) []r2.Vec {
 	b := fs.Bodies[i]
 	m := fs.Mesh
-	start := map[r2.Vec]int{}
+	start := map[r2.Vec][]int{}
 	for j, p := range m.Panels {
 		if p.Owner == b.Owner {
-			start[p.A] = j
+			start[p.A] = append(start[p.A], j)
 			rep.Panels[j].Side = Inner
 		}
 	}
@@ -253,9 +276,17 @@ func (fs *System) surface(rep *Report, i int) []r2.Vec {
 			rep.Panels[j].XOverC = r2.Dot(r2.Sub(p.Mid(), b.Chord.LeadingEdge), e) / b.Chord.Length
 		}
 	}
-	j0, ok := start[b.Chord.LeadingEdge]
-	if !ok {
+	// The first panel from the leading edge: of several (a sheet's end
+	// has one, a vertex inside it two), the one with the fluid on the
+	// left of the way from the trailing edge.
+	if len(start[b.Chord.LeadingEdge]) == 0 {
 		return nil
+	}
+	j0 := start[b.Chord.LeadingEdge][0]
+	for _, j := range start[b.Chord.LeadingEdge] {
+		if m.TwinOf(j) >= 0 && r2.Dot(m.Panels[j].Tangent(), e) > 0 {
+			j0 = j
+		}
 	}
 	var loop []int
 	side := Upper
@@ -271,8 +302,8 @@ func (fs *System) surface(rep *Report, i int) []r2.Vec {
 		} else if p.B == b.Chord.TrailingEdge && !b.Blunt {
 			side = Lower
 		}
-		n, ok := start[p.B]
-		if !ok || n == j0 || len(loop) > len(m.Panels) {
+		n := nextPanel(m, start, j)
+		if n < 0 || n == j0 || len(loop) > len(m.Panels) {
 			break
 		}
 		j = n
@@ -336,6 +367,9 @@ func (fs *System) dragWarning(cd float64) string {
 		unit, scale = "m", 1
 	}
 	for i, b := range fs.Bodies {
+		if fs.Scene.Bodies[i].Sheet() {
+			continue // a sheet's free ends carry their suction (sheet.go)
+		}
 		ring := fs.Scene.Bodies[i].Polygons[0][0]
 		for v := range ring {
 			if b.Kutta && ring[v] == b.Chord.TrailingEdge {

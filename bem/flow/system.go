@@ -221,7 +221,11 @@ func check(sc *geom.Scene, m *mesh.Mesh) error {
 		return &geom.Error{Feature: -1, Member: "features", Msg: "a flow scene needs at least one body in the stream"}
 	}
 	for _, b := range sc.Bodies {
-		if len(b.Polygons) != 1 {
+		if b.Sheet() && len(b.Lines) != 1 {
+			return &geom.Error{Feature: b.Feature, Name: b.Name, Member: "geometry",
+				Msg: fmt.Sprintf("a flow body is one wall with its own circulation, and this sheet has %d lines; give each line a body feature of its own, or join them into one LineString", len(b.Lines))}
+		}
+		if !b.Sheet() && len(b.Polygons) != 1 {
 			return &geom.Error{Feature: b.Feature, Name: b.Name, Member: "geometry",
 				Msg: fmt.Sprintf("a flow body is one solid with its own circulation, and this one has %d polygons; give each polygon a body feature of its own", len(b.Polygons))}
 		}
@@ -294,6 +298,9 @@ func newBody(sc *geom.Scene, m *mesh.Mesh, i int, dir r2.Vec) (Body, error) {
 	}
 	if b.Owner < 0 {
 		return b, fmt.Errorf("flow: internal: body %q has no owner in the layout", sb.Name)
+	}
+	if sb.Sheet() {
+		return sheetBody(sc, b, &sb, dir, ferr)
 	}
 	ring := sb.Polygons[0][0]
 	scale := sc.Problem.Scale
@@ -382,8 +389,8 @@ func wholeChord(sc *geom.Scene, bodies []Body, dir r2.Vec) Chord {
 		}
 	}
 	var rings [][]r2.Vec
-	for _, sb := range sc.Bodies {
-		rings = append(rings, sb.Polygons[0][0])
+	for i := range sc.Bodies {
+		rings = append(rings, outline(&sc.Bodies[i]))
 	}
 	return chordFrom(te, rings, sc.Problem.Chord)
 }
