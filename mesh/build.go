@@ -267,6 +267,8 @@ type builder struct {
 	gapB [][]float64 // per piece: GapFactor*gap across a body or outside the domain, slope-limited
 	lg   float64     // ln(Grading)
 	flo  float64     // absolute size floor from the diagonal
+
+	sheetLen map[int]float64 // per owner: the length of its sheet with domain on both faces (sheet.go)
 }
 
 func newBuilder(l *geom.Layout, o Options) (*builder, error) {
@@ -510,7 +512,7 @@ func (b *builder) place(h0 float64, scale []float64, keep bool) ([][]float64, in
 	nodes := make([][]float64, b.n)
 	endLen := make([][2]float64, b.n)
 	for i := 0; i < b.n; i++ {
-		ts := b.pieceNodes(&ev, i, h0*scale[b.comp[i]], noCaps)
+		ts := b.pieceNodes(&ev, i, b.sheetSize(i, h0*scale[b.comp[i]]), noCaps)
 		nodes[i] = ts
 		endLen[i] = [2]float64{ts[1] - ts[0], ts[len(ts)-1] - ts[len(ts)-2]}
 	}
@@ -540,7 +542,7 @@ func (b *builder) place(h0 float64, scale []float64, keep bool) ([][]float64, in
 		}
 		for i := range changed {
 			if changed[i] {
-				ts := b.pieceNodes(&ev, i, h0*scale[b.comp[i]], caps[i])
+				ts := b.pieceNodes(&ev, i, b.sheetSize(i, h0*scale[b.comp[i]]), caps[i])
 				nodes[i] = ts
 				endLen[i] = [2]float64{ts[1] - ts[0], ts[len(ts)-1] - ts[len(ts)-2]}
 				changed[i] = false

@@ -61,7 +61,10 @@
 // twin panels have identical end points, reversed (Mesh.Twin). A sheet's
 // free end, where its faces meet turning back, is graded as a tip (r^-1/2);
 // where it meets another boundary three or more pieces meet and it is
-// graded too; a vertex where a straight sheet merely continues is not.
+// graded too; a vertex where a straight sheet merely continues is not. At
+// the automatic size each face of a sheet gets at least 32 panels of the
+// nominal size (more where graded), whatever the size of the scene around
+// it; a size or count asked for scales them with the rest.
 // Behind a sheet's face there is no gap to size panels by: the face behind
 // is the sheet's other face.
 package mesh

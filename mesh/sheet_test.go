@@ -119,3 +119,24 @@ func TestSheetGrading(t *testing.T) {
 		t.Error("the kink of a bent baffle is not graded")
 	}
 }
+
+// At the automatic size a sheet gets at least sheetPanels panels a face,
+// however small it is in its scene; with a count asked for, in proportion.
+func TestSheetPanelCount(t *testing.T) {
+	l := sheetScene(geom.Line{{X: 4, Y: -8}, {X: 4.4, Y: -8}})
+	for _, c := range []struct {
+		o     Options
+		least int
+	}{{Options{}, sheetPanels}, {Options{Panels: 2000}, sheetPanels}} {
+		m := mustBuild(t, l, c.o)
+		n := 0
+		for _, p := range m.Panels {
+			if p.Owner == 1 {
+				n++
+			}
+		}
+		if n/2 < c.least {
+			t.Errorf("%+v: the 0.4 m baffle has %d panels a face, want at least %d", c.o, n/2, c.least)
+		}
+	}
+}

@@ -101,7 +101,10 @@
 // with 6278 panels, and within a band of 7.6e-4 over a refinement sequence
 // in which the corner panel's own value moves by 26 to 36 %; Khosla, Bose
 // and Taylor's floor with a downstream cutoff: 1.8e-4; two soils in series:
-// 3e-4 (the flux everywhere on the face, corners included).
+// 3e-4 (the flux everywhere on the face, corners included); the sheet pile
+// drawn as a line (a sheet, both faces in the soil): discharge within
+// 7.4e-5, exit gradient within 4e-4, the water's thrust on the pile within
+// 1.6e-5.
 //
 // # Structures
 //

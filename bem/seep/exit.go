@@ -554,8 +554,14 @@ func (a *analysis) freeRadius(w wedge, t isoFrame, V, d0, d1 r2.Vec, beta float6
 		return r2.Dot(p.Tangent(), f.Tangent()) < -1+1e-9 &&
 			math.Abs(r2.Cross(r2.Sub(p.A, w.v), f.Tangent())) <= tol && math.Abs(r2.Cross(r2.Sub(p.B, w.v), f.Tangent())) <= tol
 	}
+	// Another boundary that only touches the vertex (where a sheet ends
+	// on the bed, the bed beyond it and the sheet's other face) lies
+	// outside the wedge: the wedge's faces are the nearest ones round it.
+	atVertex := func(p mesh.Panel) bool {
+		return r2.Norm(r2.Sub(p.A, w.v)) <= tol || r2.Norm(r2.Sub(p.B, w.v)) <= tol
+	}
 	for j, p := range a.m.Panels {
-		if onFace[j] || backOf(p, w.exit) || backOf(p, w.next) {
+		if onFace[j] || backOf(p, w.exit) || backOf(p, w.next) || atVertex(p) {
 			continue
 		}
 		A, B := t.to(p.A), t.to(p.B)
