@@ -156,6 +156,22 @@ func (a *analysis) exits() []Exit {
 		}
 		leaving[p.Owner] = append(leaving[p.Owner], j)
 	}
+	// A face whose whole outflow is below a millionth of the section's is
+	// rounding too (the bed upstream of a sheet pile, whose few panels next
+	// to the pile's head let out 1e-10 of the discharge): not an exit.
+	out, total := map[int]float64{}, 0.0
+	for o, js := range leaving {
+		for _, j := range js {
+			q := -a.sol.F[j] * m.Panels[j].Length()
+			out[o] += q
+			total += q
+		}
+	}
+	for o, q := range out {
+		if q < exitShare*total {
+			delete(leaving, o)
+		}
+	}
 	if len(leaving) == 0 {
 		return nil
 	}
@@ -193,12 +209,16 @@ func (a *analysis) exits() []Exit {
 		owners = append(owners, o)
 	}
 	slices.Sort(owners)
-	var out []Exit
+	var exits []Exit
 	for _, o := range owners {
-		out = append(out, a.exitFace(o, leaving[o], wedges[o]))
+		exits = append(exits, a.exitFace(o, leaving[o], wedges[o]))
 	}
-	return out
+	return exits
 }
+
+// exitShare is the least share of the section's outflow a fixed-head face
+// must let out to be an exit face.
+const exitShare = 1e-6
 
 // fluxNoise returns the inflow density below which a panel's value is
 // taken for rounding: 1e-5 of the largest conductivity times the largest
