@@ -474,6 +474,7 @@ type clippedScene struct {
 	named   []named // the regions to name: all but the background
 	bodies  []named
 	edges   []named
+	sheets  []named // bodies drawn as lines (sheets of zero thickness)
 }
 
 // sceneIn clips the scene's regions, bodies and edges to the window, so
@@ -504,6 +505,14 @@ func (m *Map) sceneIn(w grid.Window) clippedScene {
 		}
 		if len(nb.polygons) > 0 {
 			out.bodies = append(out.bodies, nb)
+		}
+		if b.Sheet() {
+			for _, l := range b.Lines {
+				nb.lines = append(nb.lines, clipLine(l, w)...)
+			}
+			if len(nb.lines) > 0 {
+				out.sheets = append(out.sheets, nb)
+			}
 		}
 	}
 	for _, e := range m.Scene.Edges {
@@ -595,6 +604,11 @@ func (m *Map) drawScene(c canvas, f frame, st style, geo clippedScene) {
 			c.stroke(edgeCol, 3*st.line, nil, false, pts)
 		}
 	}
+	for _, s := range geo.sheets {
+		for _, l := range s.lines {
+			c.stroke(bodyEdge, 3*st.line, nil, false, f.pxs(l))
+		}
+	}
 }
 
 // box is a rectangle on the picture, pixels: what a label covers.
@@ -661,7 +675,8 @@ func (m *Map) drawLabels(c canvas, f frame, st style, geo clippedScene, placed [
 		haloText(c, b.name, x, y, st.font, black, ax, 0.5)
 		placed = append(placed, textBox(x, y, tw, th, ax, 0.5, pad))
 	}
-	for _, e := range geo.edges {
+	// Edges and sheets are named beside their longest segment.
+	for _, e := range append(append([]named(nil), geo.edges...), geo.sheets...) {
 		if e.name == "" {
 			continue
 		}
