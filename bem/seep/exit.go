@@ -551,21 +551,27 @@ func (a *analysis) project(w wedge, c ExitCorner, hLoc float64) (value, radius, 
 // freeRadius returns the distance, in the isotropic frame, from the vertex
 // V to the nearest boundary inside the wedge other than its two faces (the
 // panels that continue the exit panel and its neighbour straight from the
-// vertex with their conditions). The wedge of a finite corner is about a
+// vertex with their conditions), or to the nearer end of those faces. The wedge of a finite corner is about a
 // quarter plane: convex, the intersection of the half planes on the soil
 // side of its faces.
 func (a *analysis) freeRadius(w wedge, t isoFrame, V, d0, d1 r2.Vec, beta float64) float64 {
 	onFace := map[int]bool{}
-	for _, j := range a.chain(w.exit, w.v) {
-		onFace[j] = true
-	}
-	for _, j := range a.chain(w.next, w.v) {
-		onFace[j] = true
+	// The faces end where they turn or change condition (the tip of a
+	// sheet pile): the wedge's expansion holds no farther than the nearest
+	// such end, so it bounds the free radius too.
+	best := math.Inf(1)
+	for _, face := range []int{w.exit, w.next} {
+		run := 0.0
+		for _, j := range a.chain(face, w.v) {
+			onFace[j] = true
+			p := a.m.Panels[j]
+			run += r2.Norm(r2.Sub(t.to(p.B), t.to(p.A)))
+		}
+		best = math.Min(best, run)
 	}
 	// Inward normals of the faces along d0 and at beta from it.
 	n1 := d1
 	n2 := r2.Sub(r2.Scale(math.Sin(beta), d0), r2.Scale(math.Cos(beta), d1))
-	best := math.Inf(1)
 	tol := 1e-9 * a.lay.Diagonal
 	// The back of a face of zero thickness (a sheet drawn as a line) lies
 	// on the face itself, running the other way: not inside the wedge.
