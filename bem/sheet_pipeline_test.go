@@ -259,3 +259,25 @@ func TestDefaultSheetShield(t *testing.T) {
 		t.Errorf("charge inside the shield %.7f, coaxial %.7f", -in, 2*math.Pi/math.Log(2))
 	}
 }
+
+// The sheet pile in an anisotropic layer (kx = 4 ky): in the transformed
+// section x' = x sqrt(ky/kx) the soil is isotropic with k' = sqrt(kx ky)
+// and the pile keeps its depth, so q / (k' H) is the isotropic value
+// (Harr, Groundwater and Seepage, 1962, ch. 1, from memory; common
+// practice). The layer is drawn 8 T wide on either side, 4 T once
+// transformed.
+func TestDefaultSheetPileAnisotropic(t *testing.T) {
+	T, H, d := 10.0, 4.0, 5.0
+	sc := pileScene(d, T, H, 0)
+	W := 8 * T
+	sc.Regions[0].Polygons = []geom.Polygon{{ring(rect(-W, -T, W, 0))}}
+	sc.Regions[0].Material = geom.Material{Kx: 4, Ky: 1}
+	sc.Edges[0].Lines = []geom.Line{{{X: -W, Y: 0}, {}}}
+	sc.Edges[1].Lines = []geom.Line{{{}, {X: W, Y: 0}}}
+	sol, lay := solveScene(t, sc, mesh.Options{})
+	q := sol.Owners()[ownerIndex(t, lay, "up")].Inflow / (2 * H)
+	// Tolerance: observed 2.0e-5, 5x margin.
+	if e := relErr(q, 0.5); e > 1e-4 {
+		t.Errorf("q/(k' H) = %.6f, want 0.5 (error %.2g)", q, e)
+	}
+}
