@@ -112,6 +112,12 @@ type Options struct {
 	GapFactor float64
 	// MinPerPiece is the least number of panels on each layout piece. 0: 1.
 	MinPerPiece int
+	// MaxPanels is the most panels the mesh may make: a feature so thin or
+	// a gap so narrow that panels no longer than it would make more stops
+	// Build at once with a *TooFineError naming it. 0: 20 000 for an
+	// automatic mesh (about what the dense solver takes), four times Panels
+	// (at least 20 000) when Panels is given, a few million with Size.
+	MaxPanels int
 }
 
 // resolve fills in the defaults and checks the options.
@@ -192,7 +198,9 @@ func Build(l *geom.Layout, o Options) (*Mesh, error) {
 		return nil, err
 	}
 	b.classify()
-	b.sampleGaps()
+	if err := b.sampleGaps(); err != nil {
+		return nil, err
+	}
 
 	h0, scale := b.nominal()
 	if o.Panels > maxPanels {
@@ -205,6 +213,11 @@ func Build(l *geom.Layout, o Options) (*Mesh, error) {
 		h0, err = b.searchPanels(o.Panels, scale)
 		if err != nil {
 			return nil, err
+		}
+	}
+	if limit := o.limit(); o.Panels == 0 {
+		if n := b.count(h0, scale); n > limit {
+			return nil, b.tooMany(h0, scale, n)
 		}
 	}
 	m := &Mesh{Layout: l, Size: h0}
@@ -950,7 +963,7 @@ type gapSearch struct {
 // gapSampling times the distance to the nearest piece not touching this one
 // (a bound that varies no faster than the position), so that a gap that
 // opens only away from the piece's ends is not missed.
-func (b *builder) sampleGaps() {
+func (b *builder) sampleGaps() error {
 	b.gapT = make([][]float64, b.n)
 	b.gapH = make([][]float64, b.n)
 	b.gapB = make([][]float64, b.n)
@@ -965,6 +978,7 @@ func (b *builder) sampleGaps() {
 		gs.vstamp[i] = -1
 	}
 	minStep := math.Max(b.flo, 1e-12*b.diag)
+	budget := samplesPerPanel * b.o.limit()
 	for i := 0; i < b.n; i++ {
 		L := b.lens[i]
 		rcap := math.Min(gapReach*L/b.o.GapFactor, b.diag)
@@ -972,13 +986,28 @@ func (b *builder) sampleGaps() {
 		ts := []float64{0}
 		g0, gb0, r0 := b.gapAt(gs, i, 0, rcap)
 		hs, bs := []float64{g0}, []float64{gb0}
+		// The narrowest gap seen: where, how wide, and whether across a
+		// body, for the error when the samples outrun the budget.
+		narrow, narrowT, narrowBody := math.Inf(1), 0.0, false
+		note := func(t, g, gb float64) {
+			if m := math.Min(g, gb); m < narrow {
+				narrow, narrowT, narrowBody = m, t, gb < g
+			}
+		}
+		note(0, g0, gb0)
+		over := false
 		var refine func(t0, r0, t1, r1 float64, depth int)
 		refine = func(t0, r0, t1, r1 float64, depth int) {
-			if t1-t0 <= gapSampling*math.Min(r0, r1) || t1-t0 <= minStep || depth > 60 {
+			if over || t1-t0 <= gapSampling*math.Min(r0, r1) || t1-t0 <= minStep || depth > 60 {
+				return
+			}
+			if len(ts) > budget {
+				over = true
 				return
 			}
 			tm := 0.5 * (t0 + t1)
 			gm, gbm, rm := b.gapAt(gs, i, tm, rcap)
+			note(tm, gm, gbm)
 			refine(t0, r0, tm, rm, depth+1)
 			ts = append(ts, tm)
 			hs = append(hs, gm)
@@ -986,7 +1015,11 @@ func (b *builder) sampleGaps() {
 			refine(tm, rm, t1, r1, depth+1)
 		}
 		gL, gbL, rL := b.gapAt(gs, i, L, rcap)
+		note(L, gL, gbL)
 		refine(0, r0, L, rL, 0)
+		if over {
+			return b.tooFine(i, narrowT, narrow, narrowBody, int(math.Min(1e12, L/math.Max(narrow, minStep))))
+		}
 		ts = append(ts, L)
 		hs = append(hs, gL)
 		bs = append(bs, gbL)
@@ -998,6 +1031,7 @@ func (b *builder) sampleGaps() {
 	}
 	b.limitGaps(b.gapH)
 	b.limitGaps(b.gapB)
+	return nil
 }
 
 // gapAt returns the gaps at distance t from A along piece i, across the
