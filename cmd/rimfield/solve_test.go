@@ -292,3 +292,21 @@ func TestEmptyHoleWarning(t *testing.T) {
 		t.Errorf("results.json warnings lack the hole:\n%s", w)
 	}
 }
+
+// A pile 1 um thick in a 40 m section stops check and solve at once with
+// one line naming it, its thickness and the way out, and writes nothing.
+func TestTooFineFeature(t *testing.T) {
+	dir := t.TempDir()
+	scene := filepath.Join(dir, "tiny.geojson")
+	if _, _, err := runArgs(t, "new", "sheet-pile", "--thickness", "1e-6", "--depth", "5", "--layer", "15", "--upstream", "20", "--downstream", "20", "-o", scene); err != nil {
+		t.Fatal(err)
+	}
+	_, _, err := runArgs(t, "check", scene)
+	wantOneLine(t, err, `body "sheet pile" is 1e-06 m thick`, "draw it as a line")
+	out := filepath.Join(dir, "out")
+	_, _, err = runArgs(t, "solve", scene, "-o", out)
+	wantOneLine(t, err, `body "sheet pile" is 1e-06 m thick`)
+	if _, err := os.Stat(out); !errors.Is(err, os.ErrNotExist) {
+		t.Errorf("solve wrote %s", out)
+	}
+}
