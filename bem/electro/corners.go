@@ -1,20 +1,12 @@
 package electro
 
 import (
-	"cmp"
 	"math"
 	"slices"
 
 	"github.com/rimfield/rimfield/mesh"
 	"gonum.org/v1/gonum/spatial/r2"
 )
-
-// singularLambda: a vertex counts as singular when its field exponent
-// lambda - 1 is below -0.05 (lambda < 0.95). A homogeneous conductor corner
-// is then sharper than about 10 degrees past flat (pi/beta < 0.95); a
-// polygon approximating a circle turns by a few tenths of a degree per
-// vertex and is smooth for every practical purpose.
-const singularLambda = 0.95
 
 // Corner is a vertex of a conductor's surface where the field is infinite
 // in theory.
@@ -76,14 +68,14 @@ func (c Corner) RoundingRadius(target float64) float64 {
 	return math.Pow(target/(arcFactor*c.Coefficient), 1/c.Exponent) / -c.Exponent
 }
 
-// Corners returns the singular vertices of the conductors' surfaces. At
-// every vertex where a conductor's panel meets the next boundary panel
-// around the field side (another conductor panel, or an insulated or flux
-// boundary), the field side is split into sectors by the dielectric
-// interfaces that leave the vertex, and the field exponent follows from
-// the separable solution across them (mesh.WedgeExponent): singular when below
-// -0.05. Without interfaces that is pi/beta - 1 (conductor on both sides)
-// or pi/(2 beta) - 1 (conductor meets an insulated boundary), beta the
+// Corners returns the singular vertices of the conductors' surfaces: the
+// corners of the mesh (mesh.Corners: the wedge at every vertex between a
+// boundary panel and the next one round the field side, split into
+// sectors by the dielectric interfaces leaving it, and the exponent of the
+// separable solution across them) where one face is a conductor and the
+// field grows at least like r^-0.1 (mesh.SingularLambda). Without
+// interfaces that is pi/beta - 1 (conductor on both sides) or
+// pi/(2 beta) - 1 (conductor meets an insulated boundary), beta the
 // field-side opening. Anisotropic materials enter with sqrt(kx ky), an
 // approximation.
 func (f *Fields) Corners() []Corner {
@@ -96,93 +88,14 @@ func (f *Fields) Corners() []Corner {
 func (f *Fields) findCorners() []Corner {
 	m := f.Sol.Mesh
 	lay := m.Layout
-	// Boundary panels by start vertex, to find what follows a panel
-	// around the domain; interface panels by either end.
-	starts := map[r2.Vec][]int{}
-	joints := map[r2.Vec][]int{}
-	for k, p := range m.Panels {
-		if p.Interface() {
-			joints[p.A] = append(joints[p.A], k)
-			joints[p.B] = append(joints[p.B], k)
-		} else {
-			starts[p.A] = append(starts[p.A], k)
-		}
-	}
-	// cw returns the clockwise angle in (0, 2 pi] from back to d.
-	cw := func(d, back r2.Vec) float64 {
-		a := math.Atan2(r2.Cross(d, back), r2.Dot(d, back))
-		if a <= 0 {
-			a += 2 * math.Pi
-		}
-		return a
-	}
-	eps := func(reg int) float64 {
-		k := lay.Regions[reg].Material
-		return math.Sqrt(k.Kx * k.Ky)
-	}
 	var out []Corner
-	for _, p := range m.Panels {
-		if p.Interface() {
-			continue
-		}
-		// The next boundary panel clockwise from the way back along p:
-		// the one leaving the vertex with the smallest opening.
-		v := p.B
-		back := r2.Scale(-1, p.Tangent())
-		k, beta := -1, 0.0
-		for _, c := range starts[v] {
-			if a := cw(m.Panels[c].Tangent(), back); k < 0 || a < beta {
-				k, beta = c, a
-			}
-		}
-		if k < 0 {
-			continue
-		}
-		q := m.Panels[k]
+	for _, mc := range m.SingularCorners() {
+		p, q := m.Panels[mc.In], m.Panels[mc.Out]
 		cp, cq := conductor(p), conductor(q)
 		if !cp && !cq {
 			continue
 		}
-		// Sectors clockwise from p to q, split by the interfaces leaving v.
-		type ray struct {
-			phi         float64
-			left, right int // regions counter-clockwise and clockwise of the ray
-		}
-		var rays []ray
-		for _, c := range joints[v] {
-			ip := m.Panels[c]
-			d, ccwSide, cwSide := ip.Tangent(), ip.Left, ip.Right
-			if ip.B == v {
-				d, ccwSide, cwSide = r2.Scale(-1, d), ip.Right, ip.Left
-			}
-			if phi := cw(d, back); phi < beta {
-				rays = append(rays, ray{phi, ccwSide, cwSide})
-			}
-		}
-		slices.SortFunc(rays, func(a, b ray) int { return cmp.Compare(a.phi, b.phi) })
-		secs := make([]mesh.Sector, 0, len(rays)+1)
-		from, reg := 0.0, p.Left
-		for _, r := range rays {
-			secs = append(secs, mesh.Sector{Width: r.phi - from, K: eps(reg)})
-			from, reg = r.phi, r.right
-		}
-		secs = append(secs, mesh.Sector{Width: beta - from, K: eps(reg)})
-		if !cp {
-			slices.Reverse(secs)
-		}
-		var lambda float64
-		switch {
-		case len(rays) > 0:
-			lambda = mesh.WedgeExponent(secs, !(cp && cq))
-		case cp && cq:
-			lambda = math.Pi / beta
-		default:
-			lambda = math.Pi / (2 * beta)
-		}
-		if lambda >= singularLambda {
-			continue
-		}
-		c := Corner{At: v, Opening: beta, Mixed: !(cp && cq), Junction: len(rays) > 0, Exponent: lambda - 1}
+		c := Corner{At: mc.At, Opening: mc.Opening, Mixed: mc.Mixed, Junction: mc.Junction, Exponent: mc.Exponent()}
 		c.Owner, c.Region = p.Owner, p.Left
 		if !cp {
 			c.Owner, c.Region = q.Owner, q.Left

@@ -256,3 +256,41 @@ func TestJobAirBreakdown(t *testing.T) {
 		}
 	}
 }
+
+// A conductor drawn as a 32-gon (a coarse circle: each vertex turns by
+// 11.25 degrees, field ~ r^-0.06) has no singular corner worth a warning
+// (mesh.SingularLambda): no corner in the section, the cautions or the
+// warnings.
+func TestJob32gonSmooth(t *testing.T) {
+	sc := &geom.Scene{
+		Problem: geom.Problem{Physics: geom.Electrostatic, Open: true, Scale: 1, Background: air(1), BackgroundPermittivity: 1,
+			Ground: &geom.Ground{Y: 0}},
+		Bodies: []geom.Body{{Name: "wire", Polygons: []geom.Polygon{{circle(r2.Vec{X: 0, Y: 3}, 1, 32, 0)}}, Cond: fixed(1)}},
+	}
+	lay, err := sc.Layout()
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := mesh.Build(lay, mesh.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	out, err := NewJob().Solve(&job.Setup{Scene: sc, Mesh: m})
+	if err != nil {
+		t.Fatal(err)
+	}
+	sec := out.Section.Value.(*Section)
+	if len(sec.SingularCorners) != 0 {
+		t.Errorf("a 32-gon has singular corners %+v", sec.SingularCorners)
+	}
+	for _, c := range out.Cautions {
+		if c.Topic == "singular_corners" {
+			t.Errorf("a 32-gon gets the caution %q", c.Text)
+		}
+	}
+	for _, w := range out.Warnings {
+		if strings.Contains(w, "corner") || strings.Contains(w, "edge") {
+			t.Errorf("a 32-gon gets the warning %q", w)
+		}
+	}
+}

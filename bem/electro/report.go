@@ -164,6 +164,12 @@ func (f *Fields) cornerWarning(sc *geom.Scene, pk Peak, strength []float64, rf *
 	}
 	msg := fmt.Sprintf("the peak field %.3g V/m on %q is at the %s %s, where the field is infinite in theory (|E| ~ r^%.2f): the value is the mesh's, not the device's",
 		pk.Value, c.Boundary, kind, where(sc, c.At), c.Exponent)
+	if c.Exponent > -0.15 {
+		// A mild singularity: the value creeps up as the panels shrink
+		// (by 2^-p per halving) rather than being an artefact.
+		msg = fmt.Sprintf("the peak field %.3g V/m on %q is at the %s %s, where the field grows mildly without bound (|E| ~ r^%.2f): the value rises by about %.0f %% each time the panels there are halved",
+			pk.Value, c.Boundary, kind, where(sc, c.At), c.Exponent, 100*(math.Pow(2, -c.Exponent)-1))
+	}
 	if rf != nil {
 		msg += fmt.Sprintf(" (with the panels halved it reads %.3g V/m, %.2f times as much)", rf.Fine.Value, rf.Ratio)
 	}
@@ -182,8 +188,9 @@ func (f *Fields) cornerWarning(sc *geom.Scene, pk Peak, strength []float64, rf *
 	unit, scale := unitOf(sc)
 	switch size := f.ownerLength(c.Owner) / (2 * math.Pi); {
 	case r > 0.5*size:
-		// The estimate holds for radii well below the conductor's size.
-		msg += fmt.Sprintf("; rounding alone will hardly bring it down to %.3g V/m (%s): the radius would be comparable to the conductor itself (about %.2g %s); widen the gaps and re-run", target, what, r/scale, unit)
+		// The estimate holds for radii well below the conductor's size:
+		// beyond it there is no radius to quote.
+		msg += fmt.Sprintf("; rounding alone will hardly bring it down to %.3g V/m (%s): the radius would be comparable to the conductor itself; widen the gaps and re-run", target, what)
 	case r > 0:
 		msg += fmt.Sprintf("; round the edge with a radius of about %.2g %s to bring it down to %.3g V/m (%s) and re-run", r/scale, unit, target, what)
 	default:

@@ -13,6 +13,7 @@ import (
 	"github.com/rimfield/rimfield/bem/draw"
 	"github.com/rimfield/rimfield/bem/job"
 	"github.com/rimfield/rimfield/geom"
+	"gonum.org/v1/gonum/spatial/r2"
 )
 
 // Job is the ideal-flow job: surface pressure, lift with the Kutta
@@ -96,7 +97,7 @@ func sweepAngles(s string) ([]float64, error) {
 // Check lists the stream, the density, the ground plane and each body's
 // trailing edge and chord, and refuses what the formulation does not take.
 func (j *Job) Check(s *job.Setup) (*job.Checked, error) {
-	c := &job.Checked{Cautions: cautions(s)}
+	c := &job.Checked{}
 	if _, err := sweepAngles(j.Sweep); err != nil {
 		c.Refusal = err
 	}
@@ -113,6 +114,7 @@ func (j *Job) Check(s *job.Setup) (*job.Checked, error) {
 		c.Lines = append(c.Lines, fmt.Sprintf("slip wall (ground) y = %s, by images", sceneLength(sc, g.Y)))
 	}
 	bodies, whole, err := Inspect(sc, s.Mesh)
+	c.Cautions = cautions(s, trailingEdges(bodies))
 	if err != nil {
 		c.Refusal = err
 		return c, nil
@@ -144,9 +146,22 @@ func sceneLength(sc *geom.Scene, l float64) string {
 	return job.FormatNumber(l/s) + " " + unit
 }
 
-// cautions are the common cautions and the one on ideal flow.
-func cautions(s *job.Setup) []job.Caution {
-	return append(job.CommonCautions(s.Mesh), job.Caution{
+// trailingEdges returns the points of the bodies' Kutta conditions, where
+// the speed stays finite however sharp the edge.
+func trailingEdges(bodies []Body) []r2.Vec {
+	var out []r2.Vec
+	for _, b := range bodies {
+		if b.Kutta {
+			out = append(out, b.Base[0], b.Base[1])
+		}
+	}
+	return out
+}
+
+// cautions are the common cautions, but for the trailing edges, and the
+// one on ideal flow.
+func cautions(s *job.Setup, edges []r2.Vec) []job.Caution {
+	return append(job.CommonCautions(s.Mesh, edges...), job.Caution{
 		Topic: "ideal_flow",
 		Text:  "ideal flow has no viscosity: no boundary layer, separation, stall or drag; a good guide to surface pressures and lift of streamlined sections in attached flow at moderate incidence and low Mach number, not near or beyond the stall",
 	})
@@ -188,7 +203,7 @@ func (j *Job) Solve(s *job.Setup) (*job.Outcome, error) {
 		Solver:   "dense",
 		Section:  &job.Section{Key: "flow", Value: sec},
 		Warnings: sec.Warnings,
-		Cautions: cautions(s),
+		Cautions: cautions(s, trailingEdges(fs.Bodies)),
 		Columns:  columns(rep),
 		Results:  "Ideal-flow results",
 	}

@@ -49,7 +49,14 @@ func present(out *job.Outcome, sc *geom.Scene, rep *Report, sweep []SweepPoint) 
 			Text:    fmt.Sprintf("peak %s (Cp %s)", speedText(pr.Speed), fixed(pr.Cp)),
 			Caption: "the circle marks the highest surface speed, the suction peak (lowest Cp); the stagnation points are marked too",
 		}
-		if slices.Contains(m.Singular, p.A) || slices.Contains(m.Singular, p.B) {
+		sharp := false
+		edges := trailingEdges(rep.System.Bodies)
+		for _, c := range m.SingularCorners() {
+			if (c.At == p.A || c.At == p.B) && !slices.Contains(edges, c.At) {
+				sharp = true
+			}
+		}
+		if sharp {
 			// At a sharp corner other than a trailing edge the speed is
 			// infinite in theory: the value is the mesh's.
 			out.Peak.Text = fmt.Sprintf("peak %s at a sharp corner (infinite in theory)", speedText(pr.Speed))

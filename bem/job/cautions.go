@@ -14,14 +14,16 @@ const maxWhere = 10
 // CommonCautions returns the limits of the model that follow from a meshed
 // scene whatever its physics: the 2D idealisation, singular corners,
 // insulated walls that may truncate a larger domain, anisotropy.
-// CAUTIONS.md explains each topic at length.
-func CommonCautions(m *mesh.Mesh) []Caution {
+// CAUTIONS.md explains each topic at length. Corners at the points of
+// except are left out of the singular ones (a trailing edge whose Kutta
+// condition keeps the speed finite there).
+func CommonCautions(m *mesh.Mesh, except ...r2.Vec) []Caution {
 	lay := m.Layout
 	out := []Caution{{
 		Topic: "2d_idealisation",
 		Text:  "the cross-section is taken as infinitely long: results are per metre of length, and ends and 3D effects are ignored",
 	}}
-	if c, ok := singularCorners(m); ok {
+	if c, ok := singularCorners(m, except); ok {
 		out = append(out, c)
 	}
 	if c, ok := truncatedDomain(m); ok {
@@ -39,41 +41,48 @@ func CommonCautions(m *mesh.Mesh) []Caution {
 	return out
 }
 
-// singularCorners reports the vertices the mesh grades toward: corners
-// that stick into the domain, tips, changes of condition and junctions,
-// where the field (or flux) is infinite in theory. Near a corner with
-// domain-side opening beta the field goes like r^(pi/beta - 1), and where a
-// fixed potential meets a fixed flux like r^(pi/(2 beta) - 1): the local
-// separable solutions of Laplace's equation in a wedge (any potential-theory
-// text; e.g. Jackson, Classical Electrodynamics, sec. 2.11).
-func singularCorners(m *mesh.Mesh) (Caution, bool) {
-	if len(m.Singular) == 0 {
-		return Caution{}, false
-	}
-	// The boundary at each vertex: the first body or edge ending there, else
-	// the first wall or interface.
-	type naming struct {
-		name  string
-		owned bool
-	}
-	names := map[r2.Vec]naming{}
-	for _, p := range m.Panels {
-		n := naming{BoundaryName(m.Layout, p), p.Owner >= 0 && !p.Interface()}
-		for _, v := range [2]r2.Vec{p.A, p.B} {
-			if cur, ok := names[v]; !ok || (n.owned && !cur.owned) {
-				names[v] = n
+// singularCorners reports the corners of the boundary where the field (or
+// flux) is infinite in theory, mesh.SingularCorners: corners that stick
+// into the domain, tips, changes of condition on a straight line,
+// junctions. Near a corner with domain-side opening beta the field goes
+// like r^(pi/beta - 1), and where a fixed potential meets a fixed flux
+// like r^(pi/(2 beta) - 1): the local separable solutions of Laplace's
+// equation in a wedge (any potential-theory text; e.g. Jackson, Classical
+// Electrodynamics, sec. 2.11). Each location names its boundary and the
+// exponent.
+func singularCorners(m *mesh.Mesh, except []r2.Vec) (Caution, bool) {
+	var cs []mesh.Corner
+	for _, c := range m.SingularCorners() {
+		skip := false
+		for _, e := range except {
+			if r2.Norm(r2.Sub(c.At, e)) <= 1e-9*m.Layout.Diagonal {
+				skip = true
 			}
 		}
+		if !skip {
+			cs = append(cs, c)
+		}
 	}
+	if len(cs) == 0 {
+		return Caution{}, false
+	}
+	// The boundary at each corner: a body or edge among its two faces
+	// rather than a wall.
 	var where []Location
-	for _, v := range m.Singular {
+	for _, c := range cs {
 		if len(where) == maxWhere {
 			break
 		}
-		where = append(where, Location{X: Number(v.X), Y: Number(v.Y), Boundary: names[v].name})
+		in, out := m.Panels[c.In], m.Panels[c.Out]
+		name := BoundaryName(m.Layout, in)
+		if in.Owner < 0 && out.Owner >= 0 {
+			name = BoundaryName(m.Layout, out)
+		}
+		e := Number(c.Exponent())
+		where = append(where, Location{X: Number(c.At.X), Y: Number(c.At.Y), Boundary: name, Exponent: &e})
 	}
-	text := fmt.Sprintf("%d corner(s), tip(s) or change(s) of condition where the field is infinite in theory: values on the panels next to them depend on the mesh; round sharp corners (or read values a little away from them) and re-run with more panels to see how much they move", len(m.Singular))
-	if len(m.Singular) > len(where) {
+	text := fmt.Sprintf("%d corner(s), tip(s) or change(s) of condition where the field is infinite in theory (it grows like r to the exponent given at each): values on the panels next to them depend on the mesh; round sharp corners (or read values a little away from them) and re-run with more panels to see how much they move", len(cs))
+	if len(cs) > len(where) {
 		text += fmt.Sprintf(" (the first %d are listed)", len(where))
 	}
 	return Caution{Topic: "singular_corners", Text: text, Where: where}, true

@@ -189,11 +189,13 @@ type Caution struct {
 	Where []Location `json:"where,omitempty"`
 }
 
-// Location is a point in metres, with the boundary it lies on.
+// Location is a point in metres, with the boundary it lies on and, at a
+// singular corner, the exponent the field grows with (r^exponent).
 type Location struct {
-	X        Number `json:"x"`
-	Y        Number `json:"y"`
-	Boundary string `json:"boundary,omitempty"`
+	X        Number  `json:"x"`
+	Y        Number  `json:"y"`
+	Boundary string  `json:"boundary,omitempty"`
+	Exponent *Number `json:"exponent,omitempty"`
 }
 
 // Units names the SI units of the solved quantities of a physics, for

@@ -121,7 +121,7 @@ func cautions(s *job.Setup) []job.Caution {
 	return append(job.CommonCautions(s.Mesh),
 		job.Caution{
 			Topic: "exit_gradient",
-			Text:  "the exit gradient at the toe of a structure is infinite in theory and its computed value depends on the mesh; piping and heave checks need the safety factors of the applicable codes",
+			Text:  "where a tailwater bed meets the end of an impervious floor on a straight line (no cutoff) the exit gradient is infinite in theory: rimfield reports its mean over a stated length of the bed instead; beside a cutoff's face it is finite; piping and heave checks need the safety factors of the applicable codes",
 		},
 		job.Caution{
 			Topic: "steady_state",

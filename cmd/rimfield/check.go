@@ -138,6 +138,9 @@ func checkSummary(path string, sc *geom.Scene, m *mesh.Mesh, w *job.Words, c *jo
 		fmt.Fprintf(&b, "  - %s: %s\n", cn.Topic, cn.Text)
 		for _, at := range cn.Where {
 			x, y := float64(at.X), float64(at.Y)
+			if at.Exponent != nil {
+				at.Boundary += fmt.Sprintf(", field ~ r^%.2f", float64(*at.Exponent))
+			}
 			if u := sceneUnit(sc); u != "m" && sc.Problem.Scale > 0 {
 				// Also in the scene's unit, as the user drew it.
 				fmt.Fprintf(&b, "      at x = %.6g m, y = %.6g m = (%.6g, %.6g) %s (%s)\n", x, y, x/sc.Problem.Scale, y/sc.Problem.Scale, u, at.Boundary)

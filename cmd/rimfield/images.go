@@ -107,7 +107,7 @@ func pictureSpecs(t *task) (*pictures, error) {
 	mag := g.Magnitude()
 	peak, at := grid.Peak(mag)
 	sub := "Colours stop at the 99th percentile of the samples (arrow on the colour bar)."
-	if len(t.mesh.Singular) > 0 {
+	if slices.ContainsFunc(out.Cautions, func(c job.Caution) bool { return c.Topic == "singular_corners" }) {
 		sub += fmt.Sprintf(" At sharp corners and changes of condition the %s is infinite in theory: see the cautions.", w.Field)
 	}
 	fld := &draw.Map{Grid: g, Values: mag, FromZero: true, Clip: 0.99, Label: w.Field, Unit: w.FieldUnit,

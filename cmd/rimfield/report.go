@@ -169,6 +169,9 @@ func wherePoints(sc *geom.Scene, ls []job.Location) string {
 		if l.Boundary != "" {
 			s += " on " + l.Boundary
 		}
+		if l.Exponent != nil {
+			s += fmt.Sprintf(" (r^%.2f)", float64(*l.Exponent))
+		}
 		parts = append(parts, s)
 	}
 	return strings.Join(parts, "; ")

@@ -310,3 +310,41 @@ func TestTooFineFeature(t *testing.T) {
 		t.Errorf("solve wrote %s", out)
 	}
 }
+
+// check and results.json list the same singular corners: the sensor
+// example's, with the exponent of each, and none of a 32-gon's vertices
+// nor the right angles where an electrode meets an insulated face.
+func TestCornersAgree(t *testing.T) {
+	scene := repoPath("examples", "sensor", "scene.geojson")
+	out, _, err := runArgs(t, "check", scene)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var fromCheck []string
+	for _, l := range strings.Split(out, "\n") {
+		l = strings.TrimSpace(l)
+		if strings.HasPrefix(l, "at x = ") && strings.Contains(l, "field ~ r^") {
+			fromCheck = append(fromCheck, strings.Fields(l)[3]+" "+strings.Fields(l)[7])
+		}
+	}
+	dir := filepath.Join(t.TempDir(), "out")
+	if _, _, err := runArgs(t, "solve", scene, "-o", dir, "--no-images", "-q"); err != nil {
+		t.Fatal(err)
+	}
+	r := readJSON(t, filepath.Join(dir, resultsName))
+	var fromResults []string
+	for _, c := range get(t, r, "cautions").([]any) {
+		if str(t, c, "topic") != "singular_corners" {
+			continue
+		}
+		for _, w := range get(t, c, "where").([]any) {
+			fromResults = append(fromResults, strconv.FormatFloat(num(t, w, "x"), 'g', 6, 64)+" "+strconv.FormatFloat(num(t, w, "y"), 'g', 6, 64))
+			if e := num(t, w, "exponent"); !(e < -0.1 && e > -1) {
+				t.Errorf("corner %v: exponent %g", w, e)
+			}
+		}
+	}
+	if len(fromCheck) == 0 || strings.Join(fromCheck, ";") != strings.Join(fromResults, ";") {
+		t.Errorf("check lists %q\nresults.json %q", fromCheck, fromResults)
+	}
+}
