@@ -219,6 +219,7 @@ func (a *arrangement) layout() (*Layout, error) {
 	if s.Problem.Open {
 		lay.Regions = append(lay.Regions, Domain{Name: "background", Feature: -1, Background: true, Material: s.Problem.Background})
 	}
+	s.setArcs(lay)
 	return lay, nil
 }
 

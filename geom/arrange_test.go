@@ -1201,3 +1201,46 @@ func TestLayoutBadRings(t *testing.T) {
 		t.Errorf("hole on the outer ring: area %.15g, want 92", got)
 	}
 }
+
+// Every piece of a body or edge knows its arc length along the owner as
+// drawn: an edge drawn from right to left along the bottom of a region
+// (against the domain's orientation) starts at its first coordinate, and a
+// body's arc runs from the first vertex of its ring counter-clockwise;
+// walls have none.
+func TestLayoutArcs(t *testing.T) {
+	sc := &Scene{
+		Problem: Problem{Physics: Laplace},
+		Regions: []Region{region(0, "plate", Polygon{rect(0, 0, 10, 5)})},
+		Edges:   []Edge{{Feature: 1, Name: "bottom", Lines: []Line{{{X: 8, Y: 0}, {X: 2, Y: 0}}}, Cond: pot(1)}},
+		Bodies:  []Body{body(2, "hole", Insulated, Polygon{Ring{{X: 4, Y: 2}, {X: 6, Y: 2}, {X: 6, Y: 3}, {X: 4, Y: 3}}})},
+	}
+	l := mustLayout(t, sc)
+	for _, p := range l.Pieces {
+		switch {
+		case p.Owner == 1: // the edge: s = 8 - x
+			if !p.Drawn || !near(p.SA, 8-p.A.X, 1e-12) || !near(p.SB, 8-p.B.X, 1e-12) {
+				t.Errorf("edge piece %+v: want s = 8 - x", p)
+			}
+		case p.Owner == 0: // the body's ring from (4, 2) counter-clockwise
+			s := func(v r2.Vec) float64 {
+				switch {
+				case v.Y == 2:
+					return v.X - 4
+				case v.X == 6:
+					return 2 + v.Y - 2
+				case v.Y == 3:
+					return 3 + 6 - v.X
+				}
+				return 5 + 3 - v.Y
+			}
+			mid := r2.Scale(0.5, r2.Add(p.A, p.B))
+			if !p.Drawn || !near(0.5*(p.SA+p.SB), s(mid), 1e-12) || !near(math.Abs(p.SB-p.SA), r2.Norm(r2.Sub(p.B, p.A)), 1e-12) {
+				t.Errorf("body piece %+v: want s(mid) = %g", p, s(mid))
+			}
+		default:
+			if p.Drawn {
+				t.Errorf("wall piece %+v has an arc", p)
+			}
+		}
+	}
+}

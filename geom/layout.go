@@ -25,6 +25,14 @@ type Piece struct {
 	// 0), or an interface).
 	Owner int
 	Cond  Condition // the condition in force on a boundary piece
+	// SA and SB are the arc lengths along the owner as drawn at A and B
+	// (metres): from the first coordinate of an edge or a sheet, through
+	// its lines in order, or from the first vertex of a body's first ring,
+	// counter-clockwise, through its rings in order. SB < SA where the
+	// piece runs against the drawing. Drawn tells that they are set: false
+	// for walls and interfaces.
+	SA, SB float64
+	Drawn  bool
 }
 
 // Interface reports whether both sides of the piece are domain.

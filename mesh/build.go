@@ -235,12 +235,18 @@ func Build(l *geom.Layout, o Options) (*Mesh, error) {
 			if k < len(ts)-1 {
 				next = r2.Add(pc.A, r2.Scale(ts[k]/b.lens[i], d))
 			}
+			t := 0.5 * (ts[k-1] + ts[k])
+			s := sStart[i] + t
+			if pc.Drawn {
+				// Along the owner as drawn, from its first point.
+				s = pc.SA + (pc.SB-pc.SA)*t/b.lens[i]
+			}
 			m.Panels = append(m.Panels, Panel{
 				A: prev, B: next,
 				Left: pc.Left, Right: pc.Right,
 				Owner: pc.Owner, Cond: pc.Cond,
 				Piece: i,
-				S:     sStart[i] + 0.5*(ts[k-1]+ts[k]),
+				S:     s,
 			})
 			prev = next
 		}

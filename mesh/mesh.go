@@ -16,8 +16,12 @@ type Panel struct {
 	Left, Right int // indices into Layout.Regions; Right is geom.Outside on a boundary
 	Owner       int // index into Layout.Owners, or -1
 	Cond        geom.Condition
-	Piece       int     // index of the layout piece the panel came from
-	S           float64 // arc length at the midpoint along its owner's (or piece chain's) boundary, metres
+	Piece       int // index of the layout piece the panel came from
+	// S is the arc length at the midpoint, metres: along its body or edge
+	// as drawn (geom.Piece SA, SB: from the first coordinate of an edge or
+	// sheet, from the first vertex of a body's first ring), else along its
+	// chain of walls or interface pieces.
+	S float64
 }
 
 // Mid returns the midpoint of the panel, its collocation point.

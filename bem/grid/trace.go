@@ -211,8 +211,10 @@ func Trace(sol *bem.Solution, w Window, drops int, o TraceOptions) *FlowNet {
 }
 
 // sources returns the panels where flux enters the domain through a body
-// or edge (not an interface or an unowned wall), ordered by owner and arc
-// length.
+// or edge (not an interface or an unowned wall), ordered by owner and then
+// as the mesh walks its boundary (the panels of a piece from A to B, the
+// pieces of an owner along their chains), so that the seeds placed along
+// them run on from one panel to the next.
 func sources(sol *bem.Solution) []int {
 	m := sol.Mesh
 	var out []int
@@ -224,10 +226,7 @@ func sources(sol *bem.Solution) []int {
 	}
 	sort.SliceStable(out, func(a, b int) bool {
 		pa, pb := m.Panels[out[a]], m.Panels[out[b]]
-		if pa.Owner != pb.Owner {
-			return pa.Owner < pb.Owner
-		}
-		return pa.S < pb.S
+		return pa.Owner < pb.Owner
 	})
 	return out
 }

@@ -256,7 +256,7 @@ func arcLengthAxis(sc *geom.Scene, series []draw.Series) (label string, scale fl
 	if unit == "m" || !(s > 0) || longest/s > 1e4 {
 		unit, s = "m", 1
 	}
-	return "arc length along the boundary (" + unit + ")", s
+	return "arc length along each boundary from its first point as drawn (" + unit + ")", s
 }
 
 // autoHeight returns a picture height that fits the window's proportions

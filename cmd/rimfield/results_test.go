@@ -431,3 +431,42 @@ func TestNonFiniteKeys(t *testing.T) {
 		t.Errorf("results written as %s", data)
 	}
 }
+
+// boundary.csv's s_m runs along an edge from its first coordinate as
+// drawn: an edge drawn from right to left has s = x0 - x.
+func TestArcLengthAsDrawn(t *testing.T) {
+	scene := filepath.Join(t.TempDir(), "plate.geojson")
+	err := os.WriteFile(scene, []byte(`{"type": "FeatureCollection", "problem": {"physics": "laplace"},
+ "features": [
+  {"type": "Feature", "properties": {"part": "region", "name": "plate"}, "geometry": {"type": "Polygon", "coordinates": [[[0, 0], [10, 0], [10, 5], [0, 5], [0, 0]]]}},
+  {"type": "Feature", "properties": {"part": "edge", "name": "bottom", "potential": 1}, "geometry": {"type": "LineString", "coordinates": [[10, 0], [0, 0]]}},
+  {"type": "Feature", "properties": {"part": "edge", "name": "top", "potential": 0}, "geometry": {"type": "LineString", "coordinates": [[0, 5], [10, 5]]}}
+ ]}`), 0o666)
+	if err != nil {
+		t.Fatal(err)
+	}
+	dir := filepath.Join(t.TempDir(), "out")
+	if _, _, err := runArgs(t, "solve", scene, "-o", dir, "--no-images", "-q"); err != nil {
+		t.Fatal(err)
+	}
+	rows := readCSV(t, filepath.Join(dir, boundaryName))
+	n := 0
+	for _, row := range rows[1:] {
+		x, _ := strconv.ParseFloat(row[1], 64)
+		s, _ := strconv.ParseFloat(row[3], 64)
+		switch row[0] {
+		case "bottom":
+			n++
+			if math.Abs(s-(10-x)) > 1e-9 {
+				t.Errorf("bottom at x = %g: s = %g, want %g", x, s, 10-x)
+			}
+		case "top":
+			if math.Abs(s-x) > 1e-9 {
+				t.Errorf("top at x = %g: s = %g, want %g", x, s, x)
+			}
+		}
+	}
+	if n == 0 {
+		t.Error("no panels on the bottom edge")
+	}
+}
