@@ -187,26 +187,7 @@ func Trace(sol *bem.Solution, w Window, drops int, o TraceOptions) *FlowNet {
 	}
 	tr := newTracer(sol, w, o.Tol)
 	net.Lines = make([]Line, len(seeds))
-	workers := o.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
-	}
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for range min(workers, len(seeds)) {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for {
-				i := int(next.Add(1) - 1)
-				if i >= len(seeds) {
-					return
-				}
-				net.Lines[i] = tr.trace(seeds[i])
-			}
-		}()
-	}
-	wg.Wait()
+	parallel(len(seeds), o.Workers, func(i int) { net.Lines[i] = tr.trace(seeds[i]) })
 	return net
 }
 
@@ -257,32 +238,39 @@ func TraceFrom(sol *bem.Solution, w Window, starts []Start, o TraceOptions) []Li
 	}
 	tr := newTracer(sol, w, o.Tol)
 	out := make([]Line, len(starts))
-	workers := o.Workers
+	parallel(len(starts), o.Workers, func(i int) {
+		st := starts[i]
+		if !w.Contains(st.At) {
+			out[i] = Line{Points: []r2.Vec{st.At}, Source: -1, End: -1}
+			return
+		}
+		out[i] = tr.trace(seed{at: st.At, start: st.At, source: -1, against: st.Against})
+	})
+	return out
+}
+
+// parallel calls do(i) for every i below n on workers goroutines (0:
+// GOMAXPROCS), each taking the next i as it is free.
+func parallel(n, workers int, do func(i int)) {
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
 	var next atomic.Int64
 	var wg sync.WaitGroup
-	for range min(workers, len(starts)) {
+	for range min(workers, n) {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			for {
 				i := int(next.Add(1) - 1)
-				if i >= len(starts) {
+				if i >= n {
 					return
 				}
-				st := starts[i]
-				if !w.Contains(st.At) {
-					out[i] = Line{Points: []r2.Vec{st.At}, Source: -1, End: -1}
-					continue
-				}
-				out[i] = tr.trace(seed{at: st.At, start: st.At, source: -1, against: st.Against})
+				do(i)
 			}
 		}()
 	}
 	wg.Wait()
-	return out
 }
 
 // placeSeeds puts seeds at cumulative inflow (m+1/2)*step along the source
