@@ -106,6 +106,10 @@ type Outcome struct {
 	// metres (a flow's velocity equipotentials, seeded where the stream
 	// enters the window). No flow net is counted then.
 	FluxLines func(w grid.Window, k int) [][]r2.Vec
+	// Window, when not nil, is the area the pictures and contours cover by
+	// default (--window overrides it): the job's view of what matters (the
+	// structures of a long seepage section and the soil around them).
+	Window *grid.Window
 	// Overlays are named lines drawn over both maps (water levels above
 	// the beds), and Extent points the pictures' default window must take
 	// in (the water levels above a section).

@@ -9,6 +9,7 @@ import (
 
 	"github.com/rimfield/rimfield/bem"
 	"github.com/rimfield/rimfield/bem/draw"
+	"github.com/rimfield/rimfield/bem/grid"
 	"github.com/rimfield/rimfield/bem/job"
 	"github.com/rimfield/rimfield/geom"
 	"gonum.org/v1/gonum/spatial/r2"
@@ -45,11 +46,42 @@ func present(out *job.Outcome, sc *geom.Scene, rep *Report, sec *Section, tr *Tr
 		out.Lines = append(out.Lines, "uplift: "+strings.Join(up, "; "))
 	}
 	out.Tables = tables(sc, rep, sec, tr)
-	out.Overlays, out.Extent = waterLevels(sc, rep.Solution)
+	out.Window = view(rep.Solution)
+	out.Overlays, out.Extent = waterLevels(sc, rep.Solution, out.Window)
 	out.Charts = contactCharts(rep)
 	if p := upliftPlot(sc, rep); p != nil {
 		out.Plots = append(out.Plots, *p)
 	}
+}
+
+// view is the default window of a seepage section: the structures and
+// twice the soil's depth on either side of them, from the section's bottom
+// up to the top of the structures, within the section; nil when the
+// structures take up most of the section anyway (or there are none).
+func view(sol *bem.Solution) *grid.Window {
+	m := sol.Mesh
+	lo, hi := m.Bounds()
+	slo := r2.Vec{X: math.Inf(1), Y: math.Inf(1)}
+	shi := r2.Vec{X: math.Inf(-1), Y: math.Inf(-1)}
+	for _, p := range m.Panels {
+		if p.Owner < 0 || m.Layout.Owners[p.Owner].Part != geom.PartBody {
+			continue
+		}
+		for _, v := range []r2.Vec{p.A, p.B} {
+			slo = r2.Vec{X: math.Min(slo.X, v.X), Y: math.Min(slo.Y, v.Y)}
+			shi = r2.Vec{X: math.Max(shi.X, v.X), Y: math.Max(shi.Y, v.Y)}
+		}
+	}
+	if math.IsInf(slo.X, 1) {
+		return nil
+	}
+	depth := shi.Y - lo.Y
+	x0, x1 := math.Max(lo.X, slo.X-2*depth), math.Min(hi.X, shi.X+2*depth)
+	if x1-x0 > 0.6*(hi.X-lo.X) {
+		return nil
+	}
+	margin := 0.04 * (x1 - x0)
+	return &grid.Window{Min: r2.Vec{X: x0, Y: lo.Y - margin}, Max: r2.Vec{X: x1, Y: math.Max(hi.Y, shi.Y) + margin}}
 }
 
 // length writes a length given in metres in the scene's unit.
@@ -183,8 +215,9 @@ func columns(rep *Report) []job.Column {
 
 // waterLevels draws the water surface over every bed at a fixed head that
 // lies above it: a level line at the head's elevation over the bed's
-// extent, the highest named headwater and the lowest tailwater.
-func waterLevels(sc *geom.Scene, sol *bem.Solution) ([]draw.Overlay, []r2.Vec) {
+// extent (within the view win, if any), the highest named headwater and
+// the lowest tailwater; and the points the pictures must take in.
+func waterLevels(sc *geom.Scene, sol *bem.Solution, win *grid.Window) ([]draw.Overlay, []r2.Vec) {
 	lay := sol.Mesh.Layout
 	type bed struct {
 		name      string
@@ -224,6 +257,14 @@ func waterLevels(sc *geom.Scene, sol *bem.Solution) ([]draw.Overlay, []r2.Vec) {
 			label = "headwater: head " + job.FormatNumber(b.head) + " m"
 		case b.head == lo && hi > lo:
 			label = "tailwater: head " + job.FormatNumber(b.head) + " m"
+		}
+		if win != nil {
+			// Within the view: the pictures show the water over the beds
+			// near the structures.
+			b.lo, b.hi = math.Max(b.lo, win.Min.X), math.Min(b.hi, win.Max.X)
+			if !(b.hi > b.lo) {
+				continue
+			}
 		}
 		pts := []r2.Vec{{X: b.lo, Y: b.head}, {X: b.hi, Y: b.head}}
 		ovs = append(ovs, draw.Overlay{Points: pts, Label: label})

@@ -66,6 +66,9 @@ func (t *task) window() grid.Window {
 		return grid.Window{Min: r2.Vec{X: w[0] * s, Y: w[1] * s}, Max: r2.Vec{X: w[2] * s, Y: w[3] * s}}
 	}
 	w := grid.Auto(t.mesh)
+	if t.out != nil && t.out.Window != nil {
+		w = *t.out.Window
+	}
 	if t.out != nil && len(t.out.Extent) > 0 {
 		// Take in the job's points with the margin Auto keeps.
 		lo, hi := w.Min, w.Max
