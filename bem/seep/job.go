@@ -77,9 +77,9 @@ func (*Job) Words() *job.Words { return &seepWords }
 func (j *Job) Options() []job.Option {
 	return []job.Option{
 		{Name: "truncation-check", Usage: "seepage: solve the section again with its outer walls (sides and bottom) moved twice as far out and report how much the discharge and the exit gradient move, with a warning above 2 %", Value: &j.Truncation},
-		{Name: "soil", Usage: "seepage: the soil of Lane's weighted creep check, one of " + laneNames(), Value: &j.Soil},
-		{Name: "exit-length", Usage: fmt.Sprintf("seepage: length of exit face in metres over which an exit gradient that is infinite in theory (the toe of a floor without a cutoff) is averaged; 0: %g of the structure's seepage path", DefaultExitFraction), Value: &j.ExitLength},
-		{Name: "piping-safety", Usage: fmt.Sprintf("seepage: least acceptable factor of safety against piping, critical gradient over exit gradient (default %g; take your code's)", DefaultPipingSafety), Value: &j.PipingSafety},
+		{Name: "soil", Usage: "seepage: the soil `NAME` of Lane's weighted creep check, one of " + laneNames(), Value: &j.Soil},
+		{Name: "exit-length", Usage: fmt.Sprintf("seepage: length `L` of exit face in metres over which an exit gradient that is infinite in theory (the toe of a floor without a cutoff) is averaged; 0: %g of the structure's seepage path", DefaultExitFraction), Value: &j.ExitLength},
+		{Name: "piping-safety", Usage: fmt.Sprintf("seepage: least acceptable factor of safety `F` against piping, critical gradient over exit gradient (default %g; take your code's)", DefaultPipingSafety), Value: &j.PipingSafety},
 	}
 }
 

@@ -49,7 +49,7 @@ func addPictureFlags(fs *pflag.FlagSet) *pictureJob {
 	p := &pictureJob{}
 	fs.StringVar(&p.atText, "at", "", "explicit equipotential `LEVELS`, comma-separated in the potential's unit (e.g. 0.1,0.5,0.9), instead of --levels; for contours and pictures")
 	fs.StringVar(&p.sizeText, "image-size", "", "picture size `WxH` in pixels (e.g. 1600x900); default 1400 wide, height from the scene's proportions")
-	fs.StringVar(&p.winText, "window", "", "area `X0,Y0,X1,Y1` (scene units: lower left and upper right corners) that contours and pictures cover; default: the whole scene, 1.5 times the bodies' extent in an open scene")
+	fs.StringVar(&p.winText, "window", "", "area `X0,Y0,X1,Y1` (scene units: lower left and upper right corners) that contours and pictures cover; default: the whole scene, 1.5 times the bodies' extent in an open scene, the structures of a long seepage section and twice the soil's depth on either side")
 	fs.BoolVar(&p.svg, "svg", false, "also write each picture as SVG (vector) next to its PNG")
 	fs.BoolVar(&p.report, "report", false, "also write report.html: inputs, results with units, pictures, warnings and cautions in one self-contained file")
 	return p
