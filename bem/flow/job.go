@@ -42,6 +42,7 @@ var flowWords = job.Words{
 	Material:      func(geom.Material) string { return "fluid" },
 	Condition:     func(geom.Condition) string { return "wall (a streamline)" },
 	FluxLines:     "equipotentials of the velocity potential",
+	Contours:      "streamlines",
 	Ground:        "slip wall (ground)",
 	Unoriented:    true,
 	// The streamlines over the speed: how a flow is read.

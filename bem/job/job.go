@@ -246,6 +246,9 @@ type Words struct {
 	Net, FluxLines, Channels, Drops, ShapeFactor string
 	// Ground labels a grounded plane on the maps ("ground plane, 0 V").
 	Ground string
+	// Contours names the contours of the potential ("streamlines" for a
+	// stream function); "" means "equipotentials".
+	Contours string
 	// Unoriented is true when the flux lines have no direction worth an
 	// arrow (the equipotentials of a flow, drawn over its stream function).
 	// With Net empty no flow net is counted (results.json has no flow_net).
@@ -253,4 +256,12 @@ type Words struct {
 	// ContoursOnField draws the contours over the map of |grad u| too (a
 	// flow's streamlines over its speed).
 	ContoursOnField bool
+}
+
+// ContourName returns Contours, or "equipotentials".
+func (w *Words) ContourName() string {
+	if w.Contours == "" {
+		return "equipotentials"
+	}
+	return w.Contours
 }

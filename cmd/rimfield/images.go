@@ -99,9 +99,9 @@ func pictureSpecs(t *task) (*pictures, error) {
 		// colours of that range.
 		ps.potential.Lo, ps.potential.Hi = lo, hi
 	}
-	ps.potentialCaption = fmt.Sprintf("%s with equipotentials (dark lines) and %s (white, arrows in the direction of flux).", job.Capitalise(w.Potential), w.FluxLines)
+	ps.potentialCaption = fmt.Sprintf("%s with %s (dark lines) and %s (white, arrows in the direction of flux).", job.Capitalise(w.Potential), w.ContourName(), w.FluxLines)
 	if w.Unoriented {
-		ps.potentialCaption = fmt.Sprintf("%s with its contours (dark lines) and %s (white).", job.Capitalise(w.Potential), w.FluxLines)
+		ps.potentialCaption = fmt.Sprintf("%s with the %s (dark lines) and %s (white).", job.Capitalise(w.Potential), w.ContourName(), w.FluxLines)
 	}
 
 	mag := g.Magnitude()

@@ -103,9 +103,9 @@ func buildReport(t *task) *reportData {
 		{"solver", fmt.Sprintf("%s, %d unknowns, condition estimate %s", r.Solver.Kind, r.Solver.Unknowns, job.FormatNumber(float64(r.Solver.ConditionEstimate)))},
 	}
 	if pj.at != nil {
-		d.Inputs = append(d.Inputs, [2]string{"equipotentials", "at " + pj.atText + " " + u.Potential})
+		d.Inputs = append(d.Inputs, [2]string{w.ContourName(), "at " + pj.atText + " " + u.Potential})
 	} else {
-		d.Inputs = append(d.Inputs, [2]string{"equipotentials", fmt.Sprintf("%d evenly spaced", t.levels)})
+		d.Inputs = append(d.Inputs, [2]string{w.ContourName(), fmt.Sprintf("%d evenly spaced", t.levels)})
 	}
 	d.Regions = t.out.Regions
 	if d.Regions == nil {
@@ -215,7 +215,7 @@ func boundsTable(t *task, r *results) *job.Table {
 		Num:  []bool{false, false, false, true, true, true},
 	}
 	for i, b := range r.Boundaries {
-		tb.Rows = append(tb.Rows, []string{b.Name, b.Part, b.Condition, potCells[i], flowCells[i], job.FormatNumber(float64(b.Length) / s)})
+		tb.Rows = append(tb.Rows, []string{b.Name, b.Part, t.words.Condition(t.mesh.Layout.Owners[i].Cond), potCells[i], flowCells[i], job.FormatNumber(float64(b.Length) / s)})
 	}
 	return tb
 }
