@@ -54,6 +54,25 @@
 // factorised once by dense LU (gonum); one factorisation serves any number
 // of right-hand sides (System.Solve with Data).
 //
+// # The fast solver
+//
+// Settings.Method Fast solves the same discrete system without storing it
+// (fast.go): per connected part, a fast multipole tree (package bem/fmm)
+// applies the far field of the part's single and double layers (and their
+// images) to the rows' points in the part's isotropic frame, a stored near
+// block holds the same closed forms as the dense rows, and the floating,
+// Kutta and balance rows are sparse sums; known values go through the same
+// product, so the right-hand side is the dense one's. GMRES (package
+// bem/krylov) iterates on the rows paired with their unknowns, the two
+// rows of each interface panel combined so that one is of the second kind,
+// and the first-kind inflow columns preconditioned from the right by the
+// hypersingular operator (Calderon preconditioning; precond.go): the
+// iteration count then stays bounded as panels are refined (measured: 56-58
+// for the example busbars and 80-85 for the example weir from 1000 to
+// 130 000 panels), and memory and time per right-hand side grow as N.
+// Auto (the default) takes the dense solver for small systems and the fast
+// one above a crossover that grows with the number of right-hand sides.
+//
 // # Incident fields
 //
 // Data.Uniform applies a uniform incident field u0 = g.x (g (y - Y0) over a

@@ -3,6 +3,8 @@ package bem
 import (
 	"fmt"
 	"math"
+	"sync"
+	"time"
 
 	"github.com/rimfield/rimfield/geom"
 	"github.com/rimfield/rimfield/mesh"
@@ -18,6 +20,10 @@ type System struct {
 	lu       mat.LU
 	cond     float64
 	warnings []string
+	method   Method
+	fast     *fastSolver // the fast solver (Method Fast), else nil
+	timeMu   sync.Mutex
+	timing   Timing
 }
 
 // SingularError reports a system that cannot be solved: typically a part of
@@ -37,14 +43,18 @@ type TooLargeError struct {
 
 func (e *TooLargeError) Error() string {
 	gb := 16 * float64(e.Unknowns) * float64(e.Unknowns) / 1e9
-	return fmt.Sprintf("bem: %d unknowns are too many for the dense solver (about %.0f GB of memory; the limit is %d unknowns): ask for fewer panels", e.Unknowns, gb, e.Max)
+	return fmt.Sprintf("bem: %d unknowns are too many for the dense solver (about %.0f GB of memory; the limit is %d unknowns): use the fast solver, or ask for fewer panels", e.Unknowns, gb, e.Max)
 }
 
-// Assemble builds and factorises the system for the mesh.
+// Assemble builds the system for the mesh and prepares it for solving:
+// with the dense solver it assembles and factorises the matrix, with the
+// fast one it builds the multipole trees, near blocks and preconditioner
+// (Settings.Method).
 func Assemble(m *mesh.Mesh, s *Settings) (*System, error) {
 	if s == nil {
 		s = &Settings{}
 	}
+	start := time.Now()
 	pr, err := newProblem(m, s.Kutta...)
 	if err != nil {
 		return nil, err
@@ -53,10 +63,14 @@ func Assemble(m *mesh.Mesh, s *Settings) (*System, error) {
 	if limit == 0 {
 		limit = 16000
 	}
-	if pr.nUnk > limit {
-		return nil, &TooLargeError{Unknowns: pr.nUnk, Max: limit}
+	method, err := pr.choose(s, limit)
+	if err != nil {
+		return nil, err
 	}
-	sys := &System{pr: pr}
+	if method == Fast {
+		return assembleFast(pr, s, start)
+	}
+	sys := &System{pr: pr, method: Dense}
 	if sys.as, err = pr.assemble(s.Workers, s.Progress); err != nil {
 		return nil, err
 	}
@@ -73,6 +87,7 @@ func Assemble(m *mesh.Mesh, s *Settings) (*System, error) {
 		sys.warnings = append(sys.warnings, fmt.Sprintf(
 			"the system is poorly conditioned (estimate %.3g): results may carry fewer digits; look for nearly touching boundaries or extreme panel sizes", sys.cond))
 	}
+	sys.timing.Setup = time.Since(start)
 	return sys, nil
 }
 
@@ -108,7 +123,11 @@ func (sys *System) rhs(d *Data) (*mat.VecDense, []geom.Condition, error) {
 		}
 	}
 	b := mat.NewVecDense(n, nil)
-	b.MulVec(sys.as.b, v)
+	if sys.fast != nil {
+		sys.fast.known(b.RawVector().Data, v.AtVec)
+	} else {
+		b.MulVec(sys.as.b, v)
+	}
 	b.ScaleVec(-1, b)
 	var uniform r2.Vec
 	if d != nil {
@@ -141,9 +160,13 @@ func (sys *System) rhs(d *Data) (*mat.VecDense, []geom.Condition, error) {
 
 // Solve solves for the data (nil: the mesh's own conditions).
 func (sys *System) Solve(d *Data) (*Solution, error) {
+	start := time.Now()
 	b, conds, err := sys.rhs(d)
 	if err != nil {
 		return nil, err
+	}
+	if sys.fast != nil {
+		return sys.solveFast(d, b, conds, start)
 	}
 	var x mat.VecDense
 	if err := sys.lu.SolveVecTo(&x, false, b); err != nil {
@@ -153,6 +176,9 @@ func (sys *System) Solve(d *Data) (*Solution, error) {
 	if d != nil {
 		s.Uniform = d.Uniform
 	}
+	s.Method = Dense
+	s.Residual = denseResidual(sys.as.a, &x, b)
+	sys.addSolve(time.Since(start))
 	return s, nil
 }
 

@@ -422,13 +422,19 @@ func TestProgress(t *testing.T) {
 	}
 }
 
-// A system above Settings.MaxUnknowns is refused with a typed error before
-// any memory is taken.
+// A system above Settings.MaxUnknowns is refused by the dense solver with
+// a typed error before any memory is taken; Auto hands it to the fast
+// solver.
 func TestTooLarge(t *testing.T) {
-	_, err := Assemble(coax(1, 2, 100, 1).mesh(), &Settings{MaxUnknowns: 150})
+	m := coax(1, 2, 100, 1).mesh()
+	_, err := Assemble(m, &Settings{MaxUnknowns: 150, Method: Dense})
 	var tl *TooLargeError
-	if !errors.As(err, &tl) || tl.Unknowns <= 150 || !strings.Contains(err.Error(), "fewer panels") {
-		t.Fatalf("got %v, want a TooLargeError asking for fewer panels", err)
+	if !errors.As(err, &tl) || tl.Unknowns <= 150 || !strings.Contains(err.Error(), "fewer panels") || !strings.Contains(err.Error(), "fast solver") {
+		t.Fatalf("got %v, want a TooLargeError pointing to the fast solver or fewer panels", err)
+	}
+	sys, err := Assemble(m, &Settings{MaxUnknowns: 150})
+	if err != nil || sys.Method() != Fast {
+		t.Fatalf("Auto above the dense limit: %v, method %v; want the fast solver", err, sys.Method())
 	}
 }
 
