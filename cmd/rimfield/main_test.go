@@ -138,14 +138,6 @@ func TestSolveFlagErrors(t *testing.T) {
 	}
 }
 
-// --solver fast is part of the command line but not built yet: a clear
-// error pointing to dense, before any work.
-func TestSolverFastNotAvailable(t *testing.T) {
-	out := filepath.Join(t.TempDir(), "out")
-	_, _, err := runArgs(t, "solve", "no-such-scene.geojson", "-o", out, "--solver", "fast")
-	wantOneLine(t, err, "--solver fast is not available yet", "--solver dense")
-}
-
 func TestSolveMissingScene(t *testing.T) {
 	dir := t.TempDir()
 	out := filepath.Join(dir, "out")

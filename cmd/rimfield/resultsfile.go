@@ -118,11 +118,35 @@ type regionInfo struct {
 }
 
 type solverInfo struct {
-	Kind string `json:"kind"` // "dense"
+	Kind string `json:"kind"` // "dense" or "fast": the solver that ran
 	// ConditionEstimate is the estimated 1-norm condition number of the
-	// scaled system.
+	// scaled system (dense LU); 0 when the fast solver ran, which
+	// estimates none.
 	ConditionEstimate number `json:"condition_estimate"`
 	Unknowns          int    `json:"unknowns"`
+	// Iterations is the number of GMRES iterations of the solution shown
+	// (0 for the dense solver).
+	Iterations int `json:"iterations"`
+	// Residual is its relative residual ||b - A x|| / ||b|| in the scaled
+	// equations, computed from the solution.
+	Residual number `json:"residual"`
+	// Solves is the number of right-hand sides solved on the system (a
+	// capacitance matrix needs one per conductor, a sweep one per angle).
+	Solves int `json:"solves"`
+	// Bytes is the memory the system held (matrices and factors, or trees,
+	// near blocks and the Krylov basis).
+	Bytes   int          `json:"bytes"`
+	Timings solverTiming `json:"timings"`
+}
+
+// solverTiming is the wall-clock time of a solve's stages, in seconds.
+type solverTiming struct {
+	Prepare number `json:"prepare_s"` // read, lay out and mesh the scene
+	Setup   number `json:"setup_s"`   // assemble and factorise, or build the fast solver's trees and preconditioner
+	Solves  number `json:"solves_s"`  // every right-hand side on that system
+	Solve   number `json:"solve_s"`   // the job's whole solve: setup, solves, refinement studies and analysis
+	Outputs number `json:"outputs_s"` // sampling, pictures and files
+	Total   number `json:"total_s"`
 }
 
 var numberType = reflect.TypeFor[number]()

@@ -5,7 +5,9 @@ import (
 	"io"
 	"strings"
 	"text/tabwriter"
+	"time"
 
+	"github.com/rimfield/rimfield/bem"
 	"github.com/rimfield/rimfield/bem/job"
 	"github.com/rimfield/rimfield/mesh"
 )
@@ -51,7 +53,7 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 	fs.IntVar(&o.panels, "panels", 0, "approximate total number of boundary panels, a count `N` (0: chosen automatically for engineering accuracy)")
 	fs.IntVar(&o.levels, "levels", 11, "number `K` of evenly spaced equipotentials between the lowest and highest boundary potential, for contours and pictures")
 	fs.BoolVar(&o.noImages, "no-images", false, "do not draw the PNG pictures")
-	fs.StringVar(&o.solver, "solver", "auto", "linear `SOLVER`: dense (direct LU, exact to rounding), fast (not available yet), or auto (dense)")
+	fs.StringVar(&o.solver, "solver", "auto", "linear `SOLVER`: dense (direct LU, exact to rounding; memory 16 bytes per unknown squared, at most 16000 unknowns), fast (fast multipole product with GMRES to a relative residual of 1e-12; memory and time per solve growing as the panel count), or auto (dense for small systems, fast above about 1500 unknowns times the square root of the number of solves, and above the dense limit)")
 	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing on success (errors still go to stderr)")
 	pics := addPictureFlags(fs)
 	js := newJobs()
@@ -72,7 +74,7 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 	if o.levels < 1 {
 		return usagef("solve: --levels %d: give at least 1 equipotential", o.levels)
 	}
-	kind, err := solverKind(o.solver)
+	method, err := solverKind(o.solver)
 	if err != nil {
 		return err
 	}
@@ -85,27 +87,38 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 
 	t := &task{scenePath: pos[0], levels: o.levels, pics: pics}
 	var mo mesh.Options
+	tm := &stageTimes{}
+	start := time.Now()
 	t.scene, t.mesh, mo, err = prepare(pos[0], o.panels)
 	if err != nil {
 		return err
 	}
+	tm.prepare = time.Since(start)
 	t.job, err = js.forScene(t.scene.Problem.Physics)
 	if err != nil {
 		return fmt.Errorf("solve: %w", err)
 	}
 	t.words = t.job.Words()
 	n := len(t.mesh.Panels)
-	setup := &job.Setup{Scene: t.scene, Mesh: t.mesh, MeshOptions: mo, Settings: progressSettings(stderr, n, o.quiet)}
+	settings := progressSettings(stderr, n, o.quiet)
+	if settings == nil {
+		settings = &bem.Settings{}
+	}
+	settings.Method = method
+	setup := &job.Setup{Scene: t.scene, Mesh: t.mesh, MeshOptions: mo, Settings: settings}
+	start = time.Now()
 	t.out, err = t.job.Solve(setup)
 	endProgress(stderr, n, o.quiet)
 	if err != nil {
 		return err
 	}
-	if t.out.Solver == "" {
-		t.out.Solver = kind
+	tm.solve = time.Since(start)
+	if t.sol() != nil && t.sol().Method != bem.Auto {
+		t.out.Solver = t.sol().Method.String() // the solver that ran
 	}
 
-	res, files, err := resultFiles(t, !o.noImages)
+	start = time.Now()
+	res, files, err := resultFilesTimed(t, !o.noImages, tm, start)
 	if err != nil {
 		return err
 	}
@@ -118,20 +131,29 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 	return nil
 }
 
-// solverKind checks the --solver flag and returns the solver that runs.
-func solverKind(s string) (string, error) {
-	switch s {
-	case "dense", "auto":
-		return "dense", nil
-	case "fast":
-		return "", fmt.Errorf("solve: --solver fast is not available yet; use --solver dense (or auto, which picks dense)")
+// solverKind checks the --solver flag and returns the method asked for.
+func solverKind(s string) (bem.Method, error) {
+	m, err := bem.ParseMethod(s)
+	if err != nil {
+		return bem.Auto, usagef("solve: --solver %q unknown; available: dense, fast, auto", s)
 	}
-	return "", usagef("solve: --solver %q unknown; available: dense, fast, auto", s)
+	return m, nil
+}
+
+// stageTimes are the wall-clock times of a solve's stages.
+type stageTimes struct {
+	prepare, solve time.Duration
 }
 
 // resultFiles builds every output file of a solved job, in memory, with
 // results.json last so that it can list them all.
 func resultFiles(t *task, images bool) (*results, []outputFile, error) {
+	return resultFilesTimed(t, images, nil, time.Now())
+}
+
+// resultFilesTimed is resultFiles with the times of the stages before it
+// (nil: none) and the start of this one, for results.json.
+func resultFilesTimed(t *task, images bool, tm *stageTimes, start time.Time) (*results, []outputFile, error) {
 	table, err := newBoundaryTable(t)
 	if err != nil {
 		return nil, nil, err
@@ -140,6 +162,7 @@ func resultFiles(t *task, images bool) (*results, []outputFile, error) {
 	if err != nil {
 		return nil, nil, err
 	}
+	addSolverFacts(res, t)
 	res.Warnings = append(res.Warnings, table.warnings()...)
 	if t.pics != nil {
 		t.pics.res = res
@@ -163,6 +186,13 @@ func resultFiles(t *task, images bool) (*results, []outputFile, error) {
 	for _, f := range files {
 		res.Files = append(res.Files, f.name)
 	}
+	if tm != nil {
+		st := &res.Solver.Timings
+		st.Prepare = number(tm.prepare.Seconds())
+		st.Solve = number(tm.solve.Seconds())
+		st.Outputs = number(time.Since(start).Seconds())
+		st.Total = st.Prepare + st.Solve + st.Outputs
+	}
 	data, err := res.marshal()
 	if err != nil {
 		return nil, nil, fmt.Errorf("internal error: results.json: %w", err)
@@ -175,11 +205,34 @@ func resultFiles(t *task, images bool) (*results, []outputFile, error) {
 	return res, files, nil
 }
 
+// addSolverFacts fills the solver keys of results.json that the job's
+// outcome does not carry: iterations, residual, solves and the system's own
+// times.
+func addSolverFacts(res *results, t *task) {
+	sol := t.sol()
+	if sol == nil {
+		return
+	}
+	res.Solver.Iterations = sol.Iterations
+	res.Solver.Residual = number(sol.Residual)
+	if sys := t.out.System; sys != nil {
+		tm := sys.Timing()
+		res.Solver.Solves = tm.Count
+		res.Solver.Timings.Setup = number(tm.Setup.Seconds())
+		res.Solver.Timings.Solves = number(tm.Solves.Seconds())
+		res.Solver.Bytes = sys.Bytes()
+	}
+}
+
 // printSolveSummary prints what was solved and written for a person, and
 // the warnings to stderr.
 func printSolveSummary(w, stderr io.Writer, t *task, r *results, dir string) {
-	fmt.Fprintf(w, "solved %s: %s, %d panels, %d unknowns, %s solver (condition estimate %.3g)\n",
-		t.scenePath, r.Physics, r.Panels, r.Solver.Unknowns, r.Solver.Kind, float64(r.Solver.ConditionEstimate))
+	how := fmt.Sprintf("condition estimate %.3g", float64(r.Solver.ConditionEstimate))
+	if r.Solver.Kind == bem.Fast.String() {
+		how = fmt.Sprintf("%d iterations, relative residual %.2g", r.Solver.Iterations, float64(r.Solver.Residual))
+	}
+	fmt.Fprintf(w, "solved %s: %s, %d panels, %d unknowns, %s solver (%s)\n",
+		t.scenePath, r.Physics, r.Panels, r.Solver.Unknowns, r.Solver.Kind, how)
 	if len(r.Boundaries) > 0 {
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 		fmt.Fprintf(tw, "  boundary\t%s (%s)\t%s (%s)\tlength (m)\n", t.words.Potential, r.Units.Potential, t.words.Inflow, r.Units.Inflow)
