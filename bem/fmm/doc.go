@@ -39,6 +39,14 @@
 // Apply includes them in full (a target exactly at a point source gets
 // nothing from it).
 //
+// Density.Linear adds double layers of linear density along the panels
+// (a potential reconstructed linearly along each panel), in the far field
+// only: their exact moments are in addPanel, their near field is the
+// caller's. Tree.Field forms the multipoles of one density once and
+// evaluates it at points given one at a time (a flux line traced step by
+// step), each walking the source boxes from the root, with the same
+// acceptance test and error bound as a target leaf's list 3.
+//
 // # Method
 //
 // Complex variables (Greengard & Rokhlin, A fast algorithm for particle

@@ -116,7 +116,16 @@ func inv(z complex128) complex128 {
 // log(z - zeta) = log(z - c) - sum_k ((zeta-c)/(z-c))^k / k) and s L to a0;
 // the double layer, whose kernel is the derivative along nu = -i e, adds
 // -d nu L S_{k-1}/(k r) (from 1/(z - zeta) = sum_k (zeta-c)^(k-1)/(z-c)^k).
-func (e *expander) addPanel(m []complex128, c complex128, r float64, a, b complex128, s, d float64) {
+//
+// A double layer of linear density g (s - L/2) (s the arc length from a)
+// adds -g nu/r int (tau - L/2) u^(k-1) dtau, u = A + tau (B - A)/L; with
+// tau - L/2 = L (u - M)/(B - A), M = (A + B)/2, the integral is
+// (L^2/(B - A)) (S_k/(k+1) - M S_(k-1)/k), so A_k gains
+// i g L (S_k/(k+1) - M S_(k-1)/k). The difference cancels to O(|B - A|^2)
+// of its terms; its rounding, eps (r/L)^2 of the terms, is eps g L r at
+// most against the panel's constant double layer of strength d L: far below
+// any tolerance, since g L is a potential difference along one panel.
+func (e *expander) addPanel(m []complex128, c complex128, r float64, a, b complex128, s, d, g float64) {
 	p := e.p
 	m = m[:p+1]
 	ab := b - a
@@ -132,6 +141,16 @@ func (e *expander) addPanel(m []complex128, c complex128, r float64, a, b comple
 	sk := complex(1, 0)         // S_k
 	invK, invKK1 := e.invK[:p+1], e.invKK1[:p+1]
 	switch {
+	case g != 0:
+		cg := complex(0, g*l)
+		mid := 0.5 * (A + B)
+		for k := 1; k <= p; k++ {
+			prev := sk
+			pw *= A
+			sk = B*sk + pw
+			lin := cg * (sk*complex(1/float64(k+1), 0) - mid*prev*complex(invK[k], 0))
+			m[k] += complex(cs*invKK1[k], 0)*sk + complex(invK[k], 0)*(cd*prev) + lin
+		}
 	case d == 0:
 		for k := 1; k <= p; k++ {
 			pw *= A

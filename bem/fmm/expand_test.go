@@ -60,7 +60,7 @@ func (cl *cluster) exact(z complex128) (float64, complex128) {
 func (cl *cluster) multipole(e *expander, c complex128, r float64) []complex128 {
 	m := make([]complex128, e.p+1)
 	for j, p := range cl.panels {
-		e.addPanel(m, c, r, cplx(p.A), cplx(p.B), cl.s[j], cl.d[j])
+		e.addPanel(m, c, r, cplx(p.A), cplx(p.B), cl.s[j], cl.d[j], 0)
 	}
 	for k, y := range cl.points {
 		e.addPoint(m, c, r, y, cl.q[k])
@@ -139,7 +139,7 @@ func TestShortPanelMoments(t *testing.T) {
 	b := a + cmplx.Rect(1e-9, 0.4)
 	l := cmplx.Abs(b - a) // the represented panel, not the requested 1e-9
 	mp := make([]complex128, e.p+1)
-	e.addPanel(mp, c, r, a, b, 0.7, 0)
+	e.addPanel(mp, c, r, a, b, 0.7, 0, 0)
 	mq := make([]complex128, e.p+1)
 	e.addPoint(mq, c, r, 0.5*(a+b), 0.7*l)
 	for k := range mp {
@@ -150,7 +150,7 @@ func TestShortPanelMoments(t *testing.T) {
 	// Double layer: the multipole of a dipole mu = d L nu at the midpoint is
 	// A_k = -mu ((y-c)/r)^(k-1) / r.
 	md := make([]complex128, e.p+1)
-	e.addPanel(md, c, r, a, b, 0, 0.7)
+	e.addPanel(md, c, r, a, b, 0, 0.7, 0)
 	nu := -1i * (b - a) / complex(l, 0)
 	mu := complex(0.7*l, 0) * nu
 	y := (0.5*(a+b) - c) / complex(r, 0)

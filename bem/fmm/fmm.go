@@ -25,6 +25,11 @@ type Density struct {
 	Single []float64
 	// Double is the double-layer density d_j of each panel (per unit length).
 	Double []float64
+	// Linear is the slope g_j of a double layer of linear density
+	// g_j (s - L_j/2) on each panel, s the arc length from A (a potential
+	// reconstructed linearly along the panel). Apply includes it in the far
+	// field only: Block and AddNear leave its near part to the caller.
+	Linear []float64
 	// Point is the strength q_k of each point source.
 	Point []float64
 }
@@ -85,10 +90,10 @@ type Tree struct {
 
 // work is the memory of one product.
 type work struct {
-	mp, lc []complex128
-	s, d   []float64 // densities in source tree order (a point's strength in s)
-	pw     [][]complex128
-	m2l    []*m2lScratch
+	mp, lc  []complex128
+	s, d, g []float64 // densities in source tree order (a point's strength in s)
+	pw      [][]complex128
+	m2l     []*m2lScratch
 }
 
 // New builds the tree of panels and point sources (either may be empty) over
@@ -292,7 +297,7 @@ func (t *Tree) acquire() *work {
 	t.mu.Unlock()
 	n := t.e.p + 1
 	w := &work{mp: make([]complex128, n*len(t.tree.nodes)), lc: make([]complex128, n*len(t.tree.nodes)),
-		s: make([]float64, len(t.sa)), d: make([]float64, len(t.sa))}
+		s: make([]float64, len(t.sa)), d: make([]float64, len(t.sa)), g: make([]float64, len(t.sa))}
 	for g := 0; g < t.par.workers; g++ {
 		w.pw = append(w.pw, make([]complex128, n))
 		w.m2l = append(w.m2l, newM2LScratch(t.e.p))
@@ -312,6 +317,9 @@ func (t *Tree) checkDensity(d Density) {
 	}
 	if d.Double != nil && len(d.Double) != t.np {
 		panic(fmt.Sprintf("fmm: Density.Double has %d values for %d panels", len(d.Double), t.np))
+	}
+	if d.Linear != nil && len(d.Linear) != t.np {
+		panic(fmt.Sprintf("fmm: Density.Linear has %d values for %d panels", len(d.Linear), t.np))
 	}
 	if d.Point != nil && len(d.Point) != t.nq {
 		panic(fmt.Sprintf("fmm: Density.Point has %d values for %d point sources", len(d.Point), t.nq))
@@ -360,7 +368,7 @@ func (t *Tree) gather(w *work, d Density) {
 	t.par.run(len(t.sa), 4096, func(lo, hi, _ int) {
 		for k := lo; k < hi; k++ {
 			it := int(t.tree.src[k])
-			var s, dd float64
+			var s, dd, g float64
 			if it < t.np {
 				if d.Single != nil {
 					s = d.Single[it]
@@ -368,10 +376,13 @@ func (t *Tree) gather(w *work, d Density) {
 				if d.Double != nil {
 					dd = d.Double[it]
 				}
+				if d.Linear != nil {
+					g = d.Linear[it]
+				}
 			} else if d.Point != nil {
 				s = d.Point[it-t.np]
 			}
-			w.s[k], w.d[k] = s, dd
+			w.s[k], w.d[k], w.g[k] = s, dd, g
 		}
 	})
 }
@@ -393,12 +404,12 @@ func (t *Tree) upward(w *work) {
 				}
 				if nd.leaf() {
 					for k := nd.slo; k < nd.shi; k++ {
-						s, d := w.s[k], w.d[k]
-						if s == 0 && d == 0 {
+						s, d, gl := w.s[k], w.d[k], w.g[k]
+						if s == 0 && d == 0 && gl == 0 {
 							continue
 						}
 						if int(q.src[k]) < t.np {
-							t.e.addPanel(m, nd.sc, nd.sr, t.sa[k], t.sb[k], s, d)
+							t.e.addPanel(m, nd.sc, nd.sr, t.sa[k], t.sb[k], s, d, gl)
 						} else {
 							t.e.addPoint(m, nd.sc, nd.sr, t.sa[k], s)
 						}
