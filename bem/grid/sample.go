@@ -3,9 +3,6 @@ package grid
 import (
 	"fmt"
 	"math"
-	"runtime"
-	"sync"
-	"sync/atomic"
 
 	"github.com/rimfield/rimfield/bem"
 	"github.com/rimfield/rimfield/geom"
@@ -15,8 +12,9 @@ import (
 // Options tunes Sample. The zero value means the defaults given with each
 // field.
 type Options struct {
-	// Workers is the number of goroutines that evaluate rows; 0 means
-	// runtime.GOMAXPROCS(0). Results do not depend on it.
+	// Workers is not used: Sample's multipole trees run on every
+	// processor, and results do not depend on their number. It is kept so
+	// that callers that set it still compile.
 	Workers int
 	// Near is the distance from the boundary, as a fraction of the scene's
 	// bounding-box diagonal (Layout.Diagonal), within which a sample counts
@@ -76,9 +74,12 @@ func Peak(v []float64) (float64, int) {
 }
 
 // Sample evaluates sol on an nx by ny grid spanning the window w (use Auto
-// for the default), in parallel over rows. Samples outside the domain, or
-// within Options.Near of a panel, are masked (NaN, Region geom.Outside).
-// It panics if nx or ny is below 2 or the window is empty: a caller bug.
+// for the default) through fast multipole trees over the grid's points
+// (bem.Solution.EvalMany): Eval's values, the near-boundary reconstruction
+// included, at a cost per point nearly independent of the panel count.
+// Samples outside the domain, or within Options.Near of a panel, are masked
+// (NaN, Region geom.Outside). It panics if nx or ny is below 2 or the window
+// is empty: a caller bug.
 func Sample(sol *bem.Solution, w Window, nx, ny int, o Options) *Grid {
 	if nx < 2 || ny < 2 {
 		panic(fmt.Sprintf("grid: %d x %d samples; need at least 2 x 2", nx, ny))
@@ -89,32 +90,18 @@ func Sample(sol *bem.Solution, w Window, nx, ny int, o Options) *Grid {
 	g := &Grid{Window: w, NX: nx, NY: ny,
 		U: make([]float64, nx*ny), Grad: make([]r2.Vec, nx*ny), Region: make([]int, nx*ny)}
 	near := nearDistance(sol, o.Near)
-	segs := newSegments(sol)
-	workers := o.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
+	pts := make([]r2.Vec, nx*ny)
+	for j := range ny {
+		for i := range nx {
+			pts[g.Index(i, j)] = g.Point(i, j)
+		}
 	}
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for range min(workers, ny) {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for {
-				j := int(next.Add(1) - 1)
-				if j >= ny {
-					return
-				}
-				for i := range nx {
-					k := g.Index(i, j)
-					p := g.Point(i, j)
-					pt := evalMasked(sol, segs, near, p)
-					g.U[k], g.Grad[k], g.Region[k] = pt.U, pt.Grad, pt.Region
-				}
-			}
-		}()
+	for k, pt := range sol.EvalMany(pts, near) {
+		if pt.Region == geom.Outside || math.IsNaN(pt.U) {
+			pt = masked()
+		}
+		g.U[k], g.Grad[k], g.Region[k] = pt.U, pt.Grad, pt.Region
 	}
-	wg.Wait()
 	return g
 }
 
@@ -138,18 +125,6 @@ func nearDistance(sol *bem.Solution, frac float64) float64 {
 func masked() bem.Point {
 	nan := math.NaN()
 	return bem.Point{U: nan, Grad: r2.Vec{X: nan, Y: nan}, Region: geom.Outside}
-}
-
-// evalMasked evaluates sol at p, masking points on the boundary.
-func evalMasked(sol *bem.Solution, segs *segments, near float64, p r2.Vec) bem.Point {
-	if segs.within(p, near) {
-		return masked()
-	}
-	pt := sol.Eval(p)
-	if pt.Region == geom.Outside || math.IsNaN(pt.U) {
-		return masked()
-	}
-	return pt
 }
 
 // segments is the boundary as a list of segments, for distance queries.

@@ -298,6 +298,7 @@ func placeSeeds(sol *bem.Solution, src []int, step, total float64) []seed {
 // tracer integrates flux lines of one solution.
 type tracer struct {
 	sol  *bem.Solution
+	fld  *bem.Field // sol prepared for evaluation point by point
 	w    Window
 	segs *segments
 	tol  float64 // absolute, metres
@@ -308,13 +309,13 @@ type tracer struct {
 
 func newTracer(sol *bem.Solution, w Window, tol float64) *tracer {
 	d := w.Diagonal()
-	return &tracer{sol: sol, w: w, segs: newSegments(sol), tol: tol * d, hEnd: endStep * d, hMax: 0.05 * d, diag: d}
+	return &tracer{sol: sol, fld: sol.Field(), w: w, segs: newSegments(sol), tol: tol * d, hEnd: endStep * d, hMax: 0.05 * d, diag: d}
 }
 
 // dir returns the unit flux direction at p, and false outside the domain or
 // at a stagnation point.
 func (tr *tracer) dir(p r2.Vec) (r2.Vec, bool) {
-	pt := tr.sol.Eval(p)
+	pt := tr.fld.Eval(p)
 	if pt.Region == geom.Outside || math.IsNaN(pt.Grad.X) || math.IsNaN(pt.Grad.Y) {
 		return r2.Vec{}, false
 	}
@@ -456,7 +457,7 @@ func (tr *tracer) boundaryCrossing(x, y r2.Vec) r2.Vec {
 			break
 		}
 		m := r2.Scale(0.5, r2.Add(a, b))
-		if tr.sol.Locate(m) == geom.Outside {
+		if tr.fld.Locate(m) == geom.Outside {
 			b = m
 		} else {
 			a = m
