@@ -26,6 +26,8 @@ const (
 	restartMax   = 300
 	restartBytes = 1 << 29
 	maxIter      = 2000
+	// precondTol is the precision of the preconditioner's products.
+	precondTol = 1e-6
 )
 
 // fastSolver is the matrix-free system with its preconditioner.
@@ -60,7 +62,9 @@ func newFastSolver(pr *problem, s *Settings) (*fastSolver, error) {
 	if err != nil {
 		return nil, err
 	}
-	pc, err := newPrecond(pr, ftol, s.Workers)
+	// The preconditioner needs no more than a few digits: it is the same
+	// linear operator at every iteration whatever its precision.
+	pc, err := newPrecond(pr, math.Max(precondTol, ftol), s.Workers)
 	if err != nil {
 		return nil, err
 	}

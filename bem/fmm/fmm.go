@@ -506,7 +506,9 @@ func (t *Tree) evaluate(w *work, u []float64, grad []r2.Vec) {
 								continue
 							}
 							qj := w.s[j]
-							wr += qj * 0.5 * math.Log(abs2(dz))
+							if u != nil {
+								wr += qj * 0.5 * math.Log(abs2(dz))
+							}
 							if wantGrad {
 								dw += complex(qj, 0) * inv(dz)
 							}
