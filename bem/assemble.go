@@ -345,6 +345,7 @@ func (pr *problem) assemble(workers int, progress func(done, total int)) (*assem
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			var scratch rowScratch
 			defer func() {
 				if r := recover(); r != nil {
 					mu.Lock()
@@ -365,7 +366,7 @@ func (pr *problem) assemble(workers int, progress func(done, total int)) (*assem
 				}
 				hi := min(lo+chunk, n)
 				for i := lo; i < hi; i++ {
-					pr.fillRow(i, as.a.RawRowView(i), as.b.RawRowView(i))
+					pr.fillRowWith(i, as.a.RawRowView(i), as.b.RawRowView(i), &scratch)
 				}
 				if progress != nil {
 					mu.Lock()
@@ -387,6 +388,11 @@ func (pr *problem) assemble(workers int, progress func(done, total int)) (*assem
 // fillRow writes equation i into arow (unknown coefficients) and brow
 // (coefficients of the owners' known values).
 func (pr *problem) fillRow(i int, arow, brow []float64) {
+	pr.fillRowWith(i, arow, brow, &rowScratch{})
+}
+
+// fillRowWith is fillRow with a worker's scratch memory.
+func (pr *problem) fillRowWith(i int, arow, brow []float64, scratch *rowScratch) {
 	rw := pr.rows[i]
 	put := func(s slot, c float64) {
 		if s.col >= 0 {
@@ -408,11 +414,21 @@ func (pr *problem) fillRow(i int, arow, brow []float64) {
 		if me.twin >= 0 {
 			put(pr.uSlot[r.sides[me.twin].panel], 0.5)
 		}
+		r.rowCoefficients(x, rw.side, me.twin, scratch)
 		for k := range r.sides {
 			s := &r.sides[k]
-			cu, cf := r.coefficients(s, x, k == rw.side || k == me.twin)
-			put(pr.uSlot[s.panel], cu)
-			put(pr.fSlot[s.panel], -cf*s.sign*pr.colScale(s.panel))
+			cu, cf := scratch.cu[k], scratch.cf[k]
+			// put, inlined: the row's inner loop.
+			if us := pr.uSlot[s.panel]; us.col >= 0 {
+				arow[us.col] += cu
+			} else if us.owner >= 0 {
+				brow[us.owner] += cu
+			}
+			if fs := pr.fSlot[s.panel]; fs.col >= 0 {
+				arow[fs.col] -= cf * s.sign * pr.fScale[s.panel]
+			} else if fs.owner >= 0 {
+				brow[fs.owner] -= cf * s.sign
+			}
 			if s.anchor != 0 {
 				pr.putAnchored(r, k, r.linearCoefficient(s, x, k == rw.side || k == me.twin), put)
 			}
