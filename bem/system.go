@@ -56,9 +56,10 @@ func (sys *System) addSolve(d time.Duration) {
 // their refinements; each further right-hand side costs the dense solver a
 // back-substitution (negligible) and the fast one a whole GMRES run.
 func crossover(nrhs int) int {
-	// Dense: about 6.4e-11 n^3 s; fast: about 1.6e-4 n s per right-hand
-	// side (examples at 1000 to 4000 panels); equal at 1580 sqrt(nrhs).
-	const one = 1500
+	// Dense: about 1.2e-10 n^3 s (assembly and LU); fast: about 2e-4 n s
+	// per right-hand side (the examples at 2000 panels: weir, flap,
+	// busbars); equal at 1300 sqrt(nrhs).
+	const one = 1300
 	return int(one * math.Sqrt(float64(max(nrhs, 1))))
 }
 

@@ -53,7 +53,7 @@ func runSolve(args []string, stdout, stderr io.Writer) error {
 	fs.IntVar(&o.panels, "panels", 0, "approximate total number of boundary panels, a count `N` (0: chosen automatically for engineering accuracy)")
 	fs.IntVar(&o.levels, "levels", 11, "number `K` of evenly spaced equipotentials between the lowest and highest boundary potential, for contours and pictures")
 	fs.BoolVar(&o.noImages, "no-images", false, "do not draw the PNG pictures")
-	fs.StringVar(&o.solver, "solver", "auto", "linear `SOLVER`: dense (direct LU, exact to rounding; memory 16 bytes per unknown squared, at most 16000 unknowns), fast (fast multipole product with GMRES to a relative residual of 1e-12; memory and time per solve growing as the panel count), or auto (dense for small systems, fast above about 1500 unknowns times the square root of the number of solves, and above the dense limit)")
+	fs.StringVar(&o.solver, "solver", "auto", "linear `SOLVER`: dense (direct LU, exact to rounding; memory 16 bytes per unknown squared, at most 16000 unknowns), fast (fast multipole product with GMRES to a relative residual of 1e-12; memory and time per solve growing as the panel count), or auto (dense for small systems, fast above about 1300 unknowns times the square root of the number of solves, and above the dense limit)")
 	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing on success (errors still go to stderr)")
 	pics := addPictureFlags(fs)
 	js := newJobs()
