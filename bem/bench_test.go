@@ -1,9 +1,11 @@
 package bem
 
 import (
+	"flag"
 	"fmt"
 	"testing"
 
+	"github.com/rimfield/rimfield/geom"
 	"github.com/rimfield/rimfield/mesh"
 	"gonum.org/v1/gonum/spatial/r2"
 )
@@ -72,4 +74,78 @@ func BenchmarkEval(b *testing.B) {
 			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(n), "ns/panel")
 		})
 	}
+}
+
+// busbarsMesh is the example busbars (conductors on dielectric standoffs in
+// a grounded trough) meshed with about n panels.
+func busbarsMesh(b *testing.B, n int) *mesh.Mesh {
+	sc, err := geom.ReadFile("../examples/busbars/scene.geojson")
+	if err != nil {
+		b.Fatal(err)
+	}
+	return sceneMesh(b, sc, n)
+}
+
+// BenchmarkSolveScene measures a whole solve (assembly or set-up, and one
+// right-hand side) of the example busbars by each solver: where the fast
+// one overtakes the dense one, and the fast one's time per doubling of N.
+// It reports the iterations and the system's memory.
+func BenchmarkSolveScene(b *testing.B) {
+	for _, c := range []struct {
+		m     Method
+		sizes []int
+	}{{Dense, []int{1000, 2000, 4000}}, {Fast, []int{1000, 2000, 4000, 8000, 16000, 32000, 64000}}} {
+		for _, n := range c.sizes {
+			b.Run(fmt.Sprintf("solver=%v/panels=%d", c.m, n), func(b *testing.B) {
+				m := busbarsMesh(b, n)
+				b.ReportAllocs()
+				b.ResetTimer()
+				var sol *Solution
+				var sys *System
+				for i := 0; i < b.N; i++ {
+					var err error
+					if sys, err = Assemble(m, &Settings{Method: c.m}); err != nil {
+						b.Fatal(err)
+					}
+					if sol, err = sys.Solve(nil); err != nil {
+						b.Fatal(err)
+					}
+					sink += sol.F[0]
+				}
+				b.ReportMetric(float64(sol.Iterations), "iterations")
+				b.ReportMetric(float64(sys.Bytes())/float64(len(m.Panels)), "bytes/panel")
+				b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(sys.Unknowns()), "ns/unknown")
+			})
+		}
+	}
+}
+
+// million asks BenchmarkSolveMillion to run: it takes minutes and about
+// 3.5 GB.
+var million = flag.Bool("million", false, "run BenchmarkSolveMillion (a million panels: minutes, 3.5 GB)")
+
+// BenchmarkSolveMillion solves the example busbars refined to a million
+// panels by the fast solver and reports the process's peak memory:
+//
+//	go test -run='^$' -bench=SolveMillion -benchtime=1x -timeout=60m ./bem -million
+func BenchmarkSolveMillion(b *testing.B) {
+	if !*million {
+		b.Skip("a million panels take minutes: pass -million")
+	}
+	m := busbarsMesh(b, 1000000)
+	b.ResetTimer()
+	var sol *Solution
+	var sys *System
+	for i := 0; i < b.N; i++ {
+		var err error
+		if sys, err = Assemble(m, &Settings{Method: Fast}); err != nil {
+			b.Fatal(err)
+		}
+		if sol, err = sys.Solve(nil); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(sol.Iterations), "iterations")
+	b.ReportMetric(float64(sys.Bytes())/(1<<20), "system-MiB")
+	b.ReportMetric(float64(peakRSS())/(1<<20), "peak-MiB")
 }

@@ -34,8 +34,13 @@ import (
 // order (44 at 1e-12) larger leaves than fmm's default trade translations
 // for stored near pairs: 16, 24, 40 and 64 took 1.95, 1.58, 1.33 and 1.33 s
 // for the 60 iterations of the example busbars at 16 000 panels, with 71,
-// 76, 87 and 92 MB.
-const fastLeaf = 40
+// 76, 87 and 92 MB. Above bigLeafPanels the default 24 keeps the near
+// blocks (8 bytes per near pair and layer) within the memory budget of a
+// million panels.
+const (
+	fastLeaf      = 40
+	bigLeafPanels = 200000
+)
 
 // fastOp is the matrix-free system of a problem.
 type fastOp struct {
@@ -179,7 +184,11 @@ func (pr *problem) newFastPart(pi int, rows []int, tol float64, workers int) (*f
 		}
 		tx[t] = r.transform(pr.m.Panels[r.sides[rw.side].panel].Mid())
 	}
-	tree, err := fmm.New(src, nil, tx, &fmm.Options{Tol: tol, Workers: workers, LeafSize: fastLeaf})
+	leaf := fastLeaf
+	if len(pr.m.Panels) > bigLeafPanels {
+		leaf = 0
+	}
+	tree, err := fmm.New(src, nil, tx, &fmm.Options{Tol: tol, Workers: workers, LeafSize: leaf})
 	if err != nil {
 		return nil, fmt.Errorf("bem: fast solver: %v", err)
 	}

@@ -24,7 +24,7 @@ const (
 	// to 260 (2800 to 12 000 panels) and stagnated when restarted every
 	// 100. restartBytes bounds its memory on large systems.
 	restartMax   = 300
-	restartBytes = 1 << 29
+	restartBytes = 3 << 27
 	maxIter      = 2000
 	// precondTol is the precision of the preconditioner's products.
 	precondTol = 1e-6
