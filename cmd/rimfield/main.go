@@ -24,6 +24,7 @@ import (
 )
 
 func main() {
+	adviseHugePages()
 	err := run(os.Args[1:], os.Stdout, os.Stderr)
 	if err == nil {
 		return
