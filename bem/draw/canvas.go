@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"image"
 	"image/color"
+	"image/draw"
+	"image/png"
 	"io"
 	"math"
 	"sync"
@@ -134,6 +136,12 @@ func (c *rasterCanvas) measure(s string, size float64) (w, h float64) {
 func (c *rasterCanvas) image(img image.Image, x, y, w, h float64) {
 	b := img.Bounds()
 	dc := c.dc
+	if dst, ok := dc.Image().(*image.RGBA); ok && w == float64(b.Dx()) && h == float64(b.Dy()) && x == math.Trunc(x) && y == math.Trunc(y) {
+		// Pixel for pixel: a plain copy, no resampling.
+		r := image.Rect(int(x), int(y), int(x)+b.Dx(), int(y)+b.Dy())
+		draw.Draw(dst, r, img, b.Min, draw.Over)
+		return
+	}
 	dc.Push()
 	dc.Translate(x, y)
 	dc.Scale(w/float64(b.Dx()), h/float64(b.Dy()))
@@ -141,7 +149,16 @@ func (c *rasterCanvas) image(img image.Image, x, y, w, h float64) {
 	dc.Pop()
 }
 
-func (c *rasterCanvas) writePNG(w io.Writer) error { return c.dc.EncodePNG(w) }
+func (c *rasterCanvas) writePNG(w io.Writer) error { return encodePNG(w, c.dc.Image()) }
+
+// encodePNG writes img as PNG at the fastest compression: the default
+// level's compression was a third of the drawing time of a picture, and
+// the files grow by a fifth (examples/flap's four pictures: 752 kB to
+// 919 kB).
+func encodePNG(w io.Writer, img image.Image) error {
+	e := png.Encoder{CompressionLevel: png.BestSpeed}
+	return e.Encode(w, img)
+}
 
 // capHeight is the height of capitals over the font size (Go fonts: 0.7).
 const capHeight = 0.7

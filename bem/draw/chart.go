@@ -318,8 +318,7 @@ func (cs Charts) PNG(w io.Writer, width, height int) error {
 	if err := cs.draw(vgdraw.New(c), width, height); err != nil {
 		return err
 	}
-	_, err := vgimg.PngCanvas{Canvas: c}.WriteTo(w)
-	return err
+	return encodePNG(w, c.Image())
 }
 
 // SVG draws the charts as an SVG document of width x height points.

@@ -385,13 +385,16 @@ func (m *Map) colourRange() (lo, hi float64, over, under bool) {
 // colour reaches the edge of the domain; bodies are drawn over it).
 func (m *Map) drawField(c canvas, f frame, lo, hi float64) {
 	g := m.Grid
-	w, h := int(math.Ceil(f.pw)), int(math.Ceil(f.ph))
+	// Whole pixels: the raster lands on the picture's own pixels, a copy
+	// rather than a resampling.
+	x0, y0 := math.Round(f.x0), math.Round(f.y0)
+	w, h := int(math.Round(f.x0+f.pw)-x0), int(math.Round(f.y0+f.ph)-y0)
 	img := image.NewRGBA(image.Rect(0, 0, w, h))
 	cm := m.colors()
 	hs := g.Spacing()
 	for py := range h {
 		for px := range w {
-			p := f.world(f.x0+float64(px)+0.5, f.y0+float64(py)+0.5)
+			p := f.world(x0+float64(px)+0.5, y0+float64(py)+0.5)
 			v := interpolate(g, m.Values, hs, p)
 			if math.IsNaN(v) {
 				continue
@@ -399,7 +402,7 @@ func (m *Map) drawField(c canvas, f frame, lo, hi float64) {
 			img.SetRGBA(px, py, cm.At((v-lo)/(hi-lo)))
 		}
 	}
-	c.image(img, f.x0, f.y0, float64(w), float64(h))
+	c.image(img, x0, y0, float64(w), float64(h))
 }
 
 func interpolate(g *grid.Grid, vals []float64, hs r2.Vec, p r2.Vec) float64 {

@@ -5,8 +5,10 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"runtime"
 	"slices"
 	"strings"
+	"sync"
 
 	"github.com/rimfield/rimfield/bem/draw"
 	"github.com/rimfield/rimfield/bem/grid"
@@ -195,48 +197,89 @@ func pictureFiles(t *task) ([]outputFile, error) {
 		height = autoHeight(ps.potential.Grid.Window, width)
 	}
 	charts := ps.charts
-	var files []outputFile
-	add := func(name, caption string, png func(io.Writer) error, svg func(io.Writer) error) error {
-		var buf bytes.Buffer
-		if err := png(&buf); err != nil {
-			return fmt.Errorf("%s.png: %w", name, err)
-		}
-		data := buf.Bytes()
-		pj.drawn = append(pj.drawn, picture{name: name + ".png", caption: caption, png: data})
-		files = append(files, bytesFile(name+".png", data))
-		if pj.svg {
-			var sb bytes.Buffer
-			if err := svg(&sb); err != nil {
-				return fmt.Errorf("%s.svg: %w", name, err)
-			}
-			files = append(files, bytesFile(name+".svg", sb.Bytes()))
-		}
-		return nil
-	}
-	chartH := int(math.Min(550*float64(len(charts)), math.Max(350*float64(len(charts)), 0.375*float64(len(charts))*float64(width))))
-	for _, p := range []struct {
-		name, caption string
-		png, svg      func(io.Writer) error
-	}{
+	chartH := chartHeight(len(charts), width)
+	renders := []render{
 		{potentialPicture, ps.potentialCaption,
 			func(w io.Writer) error { return ps.potential.PNG(w, width, height) }, func(w io.Writer) error { return ps.potential.SVG(w, width, height) }},
 		{fieldPicture, ps.fieldCaption,
 			func(w io.Writer) error { return ps.field.PNG(w, width, height) }, func(w io.Writer) error { return ps.field.SVG(w, width, height) }},
 		{boundaryPicture, ps.chartsCaption,
 			func(w io.Writer) error { return charts.PNG(w, width, chartH) }, func(w io.Writer) error { return charts.SVG(w, width, chartH) }},
-	} {
-		if err := add(p.name, p.caption, p.png, p.svg); err != nil {
-			return nil, err
-		}
 	}
 	for _, pl := range t.out.Plots {
 		cs := pl.Charts
-		h := int(math.Min(550*float64(len(cs)), math.Max(350*float64(len(cs)), 0.375*float64(len(cs))*float64(width))))
-		if err := add(pl.Name, pl.Caption, func(w io.Writer) error { return cs.PNG(w, width, h) }, func(w io.Writer) error { return cs.SVG(w, width, h) }); err != nil {
-			return nil, err
+		h := chartHeight(len(cs), width)
+		renders = append(renders, render{pl.Name, pl.Caption, func(w io.Writer) error { return cs.PNG(w, width, h) }, func(w io.Writer) error { return cs.SVG(w, width, h) }})
+	}
+	drawn := renderAll(renders, pj.svg)
+	var files []outputFile
+	for i, r := range renders {
+		d := drawn[i]
+		if d.err != nil {
+			return nil, d.err
+		}
+		pj.drawn = append(pj.drawn, picture{name: r.name + ".png", caption: r.caption, png: d.png})
+		files = append(files, bytesFile(r.name+".png", d.png))
+		if pj.svg {
+			files = append(files, bytesFile(r.name+".svg", d.svg))
 		}
 	}
 	return files, nil
+}
+
+// chartHeight returns the height of a picture of n charts stacked at the
+// given width: 0.375 of the width each, within 350 to 550 pixels.
+func chartHeight(n, width int) int {
+	k := float64(n)
+	return int(math.Min(550*k, math.Max(350*k, 0.375*k*float64(width))))
+}
+
+// render is one picture to draw: its file name without extension, its
+// caption in the report, and its drawing as PNG and as SVG.
+type render struct {
+	name, caption string
+	png, svg      func(io.Writer) error
+}
+
+// drawnPicture is a rendered picture's bytes, or the error that stopped it.
+type drawnPicture struct {
+	png, svg []byte
+	err      error
+}
+
+// renderAll draws the pictures (and their SVG twins when svg is set) on
+// all cores at once: they are independent, and drawing and compressing
+// them is most of the wait of a small solve. The results are in the order
+// of rs.
+func renderAll(rs []render, svg bool) []drawnPicture {
+	out := make([]drawnPicture, len(rs))
+	slots := make(chan struct{}, runtime.GOMAXPROCS(0))
+	var wg sync.WaitGroup
+	for i, r := range rs {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			slots <- struct{}{}
+			defer func() { <-slots }()
+			d := &out[i]
+			var buf bytes.Buffer
+			if err := r.png(&buf); err != nil {
+				d.err = fmt.Errorf("%s.png: %w", r.name, err)
+				return
+			}
+			d.png = buf.Bytes()
+			if svg {
+				var sb bytes.Buffer
+				if err := r.svg(&sb); err != nil {
+					d.err = fmt.Errorf("%s.svg: %w", r.name, err)
+					return
+				}
+				d.svg = sb.Bytes()
+			}
+		}()
+	}
+	wg.Wait()
+	return out
 }
 
 // arcLengthAxis returns the label of the charts' arc length axis and the
