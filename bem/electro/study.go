@@ -43,7 +43,13 @@ func PeakStudy(coarse *bem.Solution, o mesh.Options, s *bem.Settings) (*Refineme
 	if err != nil {
 		return nil, fmt.Errorf("electro: refined mesh: %w", err)
 	}
-	sys, err := bem.Assemble(fm, s)
+	// One solve: the layout's own boundary conditions.
+	one := bem.Settings{}
+	if s != nil {
+		one = *s
+	}
+	one.RightHandSides = 1
+	sys, err := bem.Assemble(fm, &one)
 	if err != nil {
 		return nil, err
 	}
