@@ -124,7 +124,7 @@ func (j *Job) Solve(s *job.Setup) (*job.Outcome, error) {
 	}
 	n := len(s.Mesh.Panels)
 	refine := n <= RefineLimit
-	rep, err := Analyse(s.Scene, sys, sol, Options{Refine: refine, AirDefault: j.AirBreakdown})
+	rep, err := Analyse(s.Scene, sys, sol, Options{Refine: refine, AirDefault: j.AirBreakdown, Mesh: s.MeshOptions, Settings: s.Settings})
 	if err != nil {
 		return nil, fmt.Errorf("electrostatic results: %w", err)
 	}
